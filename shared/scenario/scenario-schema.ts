@@ -1,0 +1,134 @@
+import { z } from 'zod';
+
+/**
+ * Kinetwin's scenario file, version 1: one joint, its controller, its initial state and the
+ * forcing terms applied to it. SI units throughout, angles in radians. The README documents
+ * every field; the limits below are the single source of those documented bounds.
+ */
+
+/** Longest horizon a scenario may ask for, s. Longer runs belong in a batch job, not a bench. */
+export const MAX_HORIZON_S = 3600;
+/** Most forcing terms one scenario may carry (kicks included). */
+export const MAX_INPUT_TERMS = 64;
+export const MAX_NAME_LENGTH = 120;
+export const MAX_NOTES_LENGTH = 4000;
+
+// z.number() already rejects NaN and ±Infinity in zod 4; the messages say so in our words.
+const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
+const positive = (what: string) => finite(what).positive({ error: `${what} must be positive` });
+const nonNegative = (what: string) => finite(what).nonnegative({ error: `${what} must be zero or more` });
+
+export const jointSchema = z.strictObject({
+  /** Inertia referred to the joint, kg·m². */
+  inertia: positive('inertia'),
+  /** Viscous damping at the joint, N·m·s/rad. */
+  damping: nonNegative('damping'),
+  /** Torsional stiffness at the joint, N·m/rad. */
+  stiffness: nonNegative('stiffness'),
+  /** Gear ratio N: the joint receives N × motor torque; gains act on joint angle. */
+  gearRatio: positive('gearRatio').default(1),
+});
+
+export const controllerSchema = z.strictObject({
+  mode: z.enum(['open-loop', 'pid'], { error: 'mode must be "open-loop" or "pid"' }),
+  /** Proportional gain, N·m/rad of motor torque. */
+  kp: nonNegative('kp').default(0),
+  /** Integral gain, N·m/(rad·s). */
+  ki: nonNegative('ki').default(0),
+  /** Derivative gain, N·m·s/rad. */
+  kd: nonNegative('kd').default(0),
+  /** Whether the derivative acts on the error (kicks on reference steps) or on the measured angle. */
+  derivativeOn: z.enum(['error', 'measurement'], { error: 'derivativeOn must be "error" or "measurement"' }).default('error'),
+  /** Time constant of the first-order filter on the derivative term, s (0 = unfiltered). */
+  derivativeFilter: nonNegative('derivativeFilter').default(0),
+  /** Controller sample period, s, used by the twin only (null = continuous). */
+  samplePeriod: positive('samplePeriod').nullable().default(null),
+});
+
+export const inputShapes = ['impulse', 'step', 'ramp', 'pulse', 'sine', 'cosine', 'decay'] as const;
+export type InputShape = (typeof inputShapes)[number];
+export const inputChannels = ['reference', 'torque'] as const;
+export type InputChannel = (typeof inputChannels)[number];
+
+export const inputTermSchema = z
+  .strictObject({
+    /** reference: angle set-point (closed loop only); torque: external torque at the joint. */
+    channel: z.enum(inputChannels, { error: 'channel must be "reference" or "torque"' }),
+    shape: z.enum(inputShapes, { error: `shape must be one of ${inputShapes.join(', ')}` }),
+    /** rad or N·m (impulse: N·m·s; ramp: rad/s or N·m/s). */
+    amplitude: finite('amplitude'),
+    /** Time at which the term starts, s. */
+    delay: nonNegative('delay').default(0),
+    /** Pulse width, s (pulse only). */
+    width: positive('width').optional(),
+    /** Angular frequency ω0, rad/s (sine and cosine only). */
+    frequency: positive('frequency').optional(),
+    /** Decay rate λ, 1/s (decay only). */
+    rate: nonNegative('rate').optional(),
+  })
+  .superRefine((term, ctx) => {
+    if (term.shape === 'pulse' && term.width === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['width'], message: 'width is required for a pulse' });
+    }
+    if ((term.shape === 'sine' || term.shape === 'cosine') && term.frequency === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['frequency'], message: `frequency is required for a ${term.shape}` });
+    }
+    if (term.shape === 'decay' && term.rate === undefined) {
+      ctx.addIssue({ code: 'custom', path: ['rate'], message: 'rate is required for a decay' });
+    }
+    if (term.shape === 'impulse' && term.channel !== 'torque') {
+      ctx.addIssue({ code: 'custom', path: ['channel'], message: 'an impulse is only allowed on the torque channel' });
+    }
+  });
+
+export const limitsSchema = z.strictObject({
+  /** Largest acceptable overshoot of a reference step, %. */
+  overshootPercent: nonNegative('overshootPercent').nullable().default(null),
+  /** Largest acceptable 2 % settling time, s. */
+  settlingTime: positive('settlingTime').nullable().default(null),
+  /** Largest acceptable |steady-state error|, rad. */
+  steadyStateError: nonNegative('steadyStateError').nullable().default(null),
+});
+
+/**
+ * Effects the twin adds to the linear joint. The closed form ignores this block; the twin
+ * defines its fields. Kept open here so a file written by a newer twin still loads.
+ */
+export const nonlinearSchema = z.looseObject({});
+
+export const scenarioSchema = z
+  .strictObject({
+    kind: z.literal('kinetwin/scenario', { error: 'kind must be "kinetwin/scenario"' }),
+    version: z.literal(1, { error: 'version must be 1' }),
+    name: z
+      .string({ error: 'name must be text' })
+      .trim()
+      .min(1, { error: 'name must not be empty' })
+      .max(MAX_NAME_LENGTH, { error: `name must be at most ${MAX_NAME_LENGTH} characters` }),
+    notes: z.string({ error: 'notes must be text' }).max(MAX_NOTES_LENGTH, { error: `notes must be at most ${MAX_NOTES_LENGTH} characters` }).default(''),
+    joint: jointSchema,
+    controller: controllerSchema,
+    initial: z.strictObject({ angle: finite('angle').default(0), velocity: finite('velocity').default(0) }).default({ angle: 0, velocity: 0 }),
+    inputs: z.array(inputTermSchema).max(MAX_INPUT_TERMS, { error: `at most ${MAX_INPUT_TERMS} input terms are allowed` }).default([]),
+    /** Simulated time span, s. */
+    horizon: positive('horizon').max(MAX_HORIZON_S, { error: `horizon must be at most ${MAX_HORIZON_S} s` }),
+    limits: limitsSchema.default({ overshootPercent: null, settlingTime: null, steadyStateError: null }),
+    nonlinear: nonlinearSchema.default({}),
+  })
+  .superRefine((s, ctx) => {
+    if (s.controller.mode === 'open-loop') {
+      s.inputs.forEach((term, i) => {
+        if (term.channel === 'reference') {
+          ctx.addIssue({ code: 'custom', path: ['inputs', i, 'channel'], message: 'a reference input needs a closed loop (controller.mode "pid")' });
+        }
+      });
+    }
+  });
+
+/** A validated scenario with every default filled in. */
+export type Scenario = z.output<typeof scenarioSchema>;
+/** What a scenario file may contain before defaults are applied. */
+export type ScenarioInput = z.input<typeof scenarioSchema>;
+export type InputTerm = Scenario['inputs'][number];
+export type Joint = Scenario['joint'];
+export type Controller = Scenario['controller'];
