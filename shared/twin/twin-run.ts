@@ -3,7 +3,7 @@ import type { Scenario } from '../scenario/scenario-schema';
 import { forcingTermsOf, type ForcingTerms } from './forcing-terms';
 
 /** Defaults of a twin run; the README's configuration table quotes these. */
-export const TWIN_DEFAULTS = {
+export const TWIN_DEFAULTS: TwinSettings = {
   /** Output sample spacing, s. */
   dt: 0.001,
   /** odex relative and absolute tolerances. */
@@ -17,9 +17,19 @@ export const TWIN_DEFAULTS = {
   velocityBound: 1e7,
   /** odex step budget per chunk; exhausting it means the scenario is too stiff for this integrator. */
   maxStepsPerChunk: 20000,
-} as const;
+};
 
-export type TwinOptions = Partial<typeof TWIN_DEFAULTS>;
+export interface TwinSettings {
+  dt: number;
+  relativeTolerance: number;
+  absoluteTolerance: number;
+  maxChunk: number;
+  angleBound: number;
+  velocityBound: number;
+  maxStepsPerChunk: number;
+}
+
+export type TwinOptions = Partial<TwinSettings>;
 
 /** Samples on the output grid; parallel arrays in time order. */
 export interface TwinSamples {
