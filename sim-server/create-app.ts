@@ -1,0 +1,132 @@
+import { existsSync } from 'node:fs';
+import { createServer, type IncomingMessage, type Server, type ServerResponse } from 'node:http';
+import path from 'node:path';
+import connectPgSimple from 'connect-pg-simple';
+import express, { type RequestHandler } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import type { PassportStatic } from 'passport';
+import { pinoHttp } from 'pino-http';
+import { Server as SocketServer } from 'socket.io';
+import type { AppInfo } from '../shared/protocol/api-types';
+import { RUN_NAMESPACE } from '../shared/protocol/run-events';
+import { authRoutes } from './auth/auth-routes';
+import { createPassport } from './auth/passport-setup';
+import { requireUser } from './auth/require-user';
+import type { ServerConfig } from './config';
+import type { DatabaseHandle } from './db/database';
+import { DEMO_ACCOUNTS } from './db/seed-demo';
+import { appInfoRoute, healthRoutes } from './health/health-routes';
+import { apiNotFound, errorHandler } from './http/error-handler';
+import type { Logger } from './logging/logger';
+import { registerRunHandlers, type RunNamespace } from './runs/run-handlers';
+import { scenarioRoutes } from './scenarios/scenario-routes';
+
+export interface KinetwinServer {
+  http: Server;
+  io: SocketServer;
+  liveRuns(): number;
+  /** Stops accepting connections, ends live runs and closes sockets; the database stays open. */
+  close(): Promise<void>;
+}
+
+/** JSON bodies above this are refused with 413; a scenario file is a few kilobytes. */
+export const MAX_JSON_BODY = '256kb';
+
+/** Builds Express and socket.io on one HTTP server. Listening is the caller's job. */
+export function createKinetwinServer(config: ServerConfig, database: DatabaseHandle, logger: Logger, version: string): KinetwinServer {
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', 'loopback');
+
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          // No external host anywhere. Angular Material and Plotly set inline styles at run time.
+          defaultSrc: ["'self'"],
+          scriptSrc: ["'self'"],
+          styleSrc: ["'self'", "'unsafe-inline'"],
+          imgSrc: ["'self'", 'data:', 'blob:'],
+          fontSrc: ["'self'", 'data:'],
+          connectSrc: ["'self'"],
+          workerSrc: ["'self'", 'blob:'],
+          upgradeInsecureRequests: null,
+        },
+      },
+      // Plain-HTTP local use must not be told to upgrade to HTTPS.
+      strictTransportSecurity: config.mode === 'production',
+    }),
+  );
+  app.use(
+    pinoHttp({
+      logger,
+      autoLogging: { ignore: (req) => !req.url?.startsWith('/api') },
+      // Method, path and status are what an operator reads; headers would carry cookies.
+      serializers: { req: (req: { method: string; url: string }) => ({ method: req.method, url: req.url }), res: (res: { statusCode: number }) => ({ status: res.statusCode }) },
+    }),
+  );
+
+  const PgStore = connectPgSimple(session);
+  const sessionMiddleware = session({
+    store: new PgStore({ pool: database.pool, tableName: 'session', createTableIfMissing: false }),
+    name: 'kinetwin.sid',
+    secret: config.sessionSecret,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: config.mode === 'production' ? 'auto' : false, maxAge: 7 * 24 * 3600_000 },
+  });
+  const passport = createPassport(database.db) as unknown as PassportStatic;
+
+  const info: AppInfo = {
+    version,
+    demoMode: config.mode === 'demo',
+    demoAccounts: config.mode === 'demo' ? DEMO_ACCOUNTS : [],
+  };
+
+  const api = express.Router();
+  api.use(express.json({ limit: MAX_JSON_BODY }));
+  api.use('/health', healthRoutes(database.pool, version));
+  api.use('/app-info', appInfoRoute(info));
+  api.use(sessionMiddleware, passport.initialize(), passport.session());
+  api.use('/auth', authRoutes({ passport, signInLimit: config.signInLimit, signInWindowMinutes: config.signInWindowMinutes }));
+  api.use('/scenarios', requireUser, scenarioRoutes(database.db));
+  api.use(apiNotFound);
+  app.use('/api', api);
+
+  const staticDir = path.resolve(config.staticDir);
+  if (existsSync(path.join(staticDir, 'index.html'))) {
+    app.use(express.static(staticDir, { index: false, maxAge: '1h' }));
+    // Client-side routes (/library, /bench/3) all load the app shell.
+    app.get('/{*splat}', (_req, res) => res.sendFile(path.join(staticDir, 'index.html'), { maxAge: 0 }));
+  } else {
+    logger.warn({ staticDir }, 'no built app found; serving the API only (run `npx ng build`)');
+  }
+  app.use(errorHandler(logger));
+
+  const http = createServer(app);
+  const io = new SocketServer(http, { serveClient: false, maxHttpBufferSize: 1e6, cors: { origin: false } });
+  // Sockets share the cookie session; only the handshake needs it, later polling requests do not.
+  const handshakeOnly = (middleware: RequestHandler) => (req: IncomingMessage, res: ServerResponse, next: (err?: unknown) => void) => {
+    const isHandshake = (req as IncomingMessage & { _query?: Record<string, string> })._query?.sid === undefined;
+    if (isHandshake) middleware(req as never, res as never, next);
+    else next();
+  };
+  io.engine.use(handshakeOnly(sessionMiddleware));
+  io.engine.use(handshakeOnly(passport.session() as RequestHandler));
+  const runs = registerRunHandlers(io.of(RUN_NAMESPACE) as RunNamespace, { db: database.db, logger, maxLiveRuns: config.maxLiveRuns });
+
+  return {
+    http,
+    io,
+    liveRuns: runs.liveRuns,
+    close: () =>
+      new Promise<void>((resolve) => {
+        // io.close() disconnects every socket (ending its runs) and closes the HTTP server.
+        io.close(() => resolve());
+        http.closeAllConnections();
+      }),
+  };
+}
