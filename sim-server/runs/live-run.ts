@@ -42,11 +42,28 @@ export function startLiveRun(runId: string, scenario: Scenario, options: LiveRun
     }
   };
 
+  // The twin integrates in whole chunks and may run ahead of the wall clock; samples past the
+  // paced time wait here so the stream never shows the future.
+  let ahead: TwinSamples | null = null;
+  let shownTime = 0;
+
   const finish = (reason: RunEnded['reason'], message: string) => {
     if (finished) return;
     finished = true;
     cancelPending?.();
-    sink.end({ runId, reason, message, simulatedTime: twin.time });
+    sink.end({ runId, reason, message, simulatedTime: shownTime });
+  };
+
+  const emitUpTo = (target: number) => {
+    if (!ahead) ahead = twin.advance(target);
+    else if (ahead.t.length === 0 || ahead.t[ahead.t.length - 1]! < target) ahead = concat(ahead, twin.advance(target));
+    let cut = 0;
+    while (cut < ahead.t.length && ahead.t[cut]! <= target) cut++;
+    if (cut > 0) {
+      sink.frame(toFrame(runId, slice(ahead, 0, cut)));
+      shownTime = ahead.t[cut - 1]!;
+    }
+    ahead = slice(ahead, cut, ahead.t.length);
   };
 
   const tick = () => {
@@ -54,18 +71,32 @@ export function startLiveRun(runId: string, scenario: Scenario, options: LiveRun
     if (finished) return;
     const target =
       options.speed > 0 ? ((performance.now() - startedAt) / 1000) * options.speed : twin.time + MAX_SIM_PER_FAST_TICK_S;
-    const samples = twin.advance(target);
-    if (samples.t.length > 0) sink.frame(toFrame(runId, samples));
-    if (twin.stop) return finish('bound', twin.stop.message);
-    if (twin.done) return finish('finished', `Reached the horizon, t = ${twin.horizon.toFixed(3)} s.`);
+    emitUpTo(target);
+    const drained = ahead === null || (ahead as TwinSamples).t.length === 0;
+    if (twin.stop && drained) return finish('bound', twin.stop.message);
+    if (twin.done && drained) return finish('finished', `Reached the horizon, t = ${shownTime.toFixed(3)} s.`);
     schedule(options.speed > 0 ? FRAME_INTERVAL_MS : null);
   };
   schedule(null);
 
   return {
     runId,
-    stop: () => finish('stopped', `Stopped at t = ${twin.time.toFixed(3)} s.`),
+    stop: () => finish('stopped', `Stopped at t = ${shownTime.toFixed(3)} s.`),
   };
+}
+
+function slice(s: TwinSamples, from: number, to: number): TwinSamples {
+  return { t: s.t.subarray(from, to), angle: s.angle.subarray(from, to), velocity: s.velocity.subarray(from, to), controllerTorque: s.controllerTorque.subarray(from, to) };
+}
+
+function concat(a: TwinSamples, b: TwinSamples): TwinSamples {
+  const join = (x: Float64Array, y: Float64Array) => {
+    const out = new Float64Array(x.length + y.length);
+    out.set(x);
+    out.set(y, x.length);
+    return out;
+  };
+  return { t: join(a.t, b.t), angle: join(a.angle, b.angle), velocity: join(a.velocity, b.velocity), controllerTorque: join(a.controllerTorque, b.controllerTorque) };
 }
 
 function toFrame(runId: string, s: TwinSamples): RunFrame {

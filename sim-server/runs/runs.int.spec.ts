@@ -1,0 +1,143 @@
+import { io, type Socket } from 'socket.io-client';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { RUN_NAMESPACE, type ClientToServerEvents, type RunEnded, type RunFrame, type RunStartRequest, type ServerToClientEvents } from '../../shared/protocol/run-events';
+import type { Ack } from '../../shared/protocol/ack';
+import { DEMO_ACCOUNTS } from '../db/seed-demo';
+import { readJson, signIn, startTestServer, type TestServer } from '../testing/test-server';
+
+type Client = Socket<ServerToClientEvents, ClientToServerEvents>;
+
+describe('live runs over real sockets', () => {
+  let t: TestServer;
+  let cookie: string;
+  let scenarioIds: number[];
+  const clients: Client[] = [];
+
+  beforeAll(async () => {
+    t = await startTestServer();
+    cookie = await signIn(t.baseUrl, DEMO_ACCOUNTS[0]!.email, DEMO_ACCOUNTS[0]!.password);
+    scenarioIds = (await (await readJson(await fetch(`${t.baseUrl}/api/scenarios`, { headers: { cookie } })))).items.map((i: { id: number }) => i.id);
+  });
+  afterAll(async () => {
+    clients.forEach((c) => c.disconnect());
+    await t.close();
+  });
+
+  const connect = (withCookie = true): Client => {
+    const client: Client = io(`${t.baseUrl}${RUN_NAMESPACE}`, {
+      transports: ['websocket'],
+      extraHeaders: withCookie ? { cookie } : {},
+      reconnection: false,
+    });
+    clients.push(client);
+    return client;
+  };
+
+  const start = (client: Client, request: unknown) =>
+    new Promise<Ack<{ runId: string; horizon: number }>>((resolve) => client.emit('run:start', request as RunStartRequest, resolve));
+
+  const collect = (client: Client) =>
+    new Promise<{ frames: RunFrame[]; end: RunEnded }>((resolve) => {
+      const frames: RunFrame[] = [];
+      client.on('run:frame', (f) => frames.push(f));
+      client.once('run:end', (end) => resolve({ frames, end }));
+    });
+
+  it('refuses a connection without a signed-in session', async () => {
+    const client = connect(false);
+    const error = await new Promise<Error>((resolve) => client.once('connect_error', resolve));
+    expect(error.message).toMatch(/Sign in first/);
+  });
+
+  it('streams a stored scenario to its horizon in time order with finite samples', async () => {
+    const client = connect();
+    const done = collect(client);
+    const ack = await start(client, { scenarioId: scenarioIds[0], speed: 0, dt: 0.005 });
+    expect(ack.status).toBe('ok');
+    const { frames, end } = await done;
+    expect(end).toMatchObject({ reason: 'finished' });
+    const t = frames.flatMap((f) => f.t);
+    const angle = frames.flatMap((f) => f.angle);
+    expect(t[0]).toBe(0);
+    expect(t.at(-1)).toBeCloseTo(end.simulatedTime, 9);
+    expect(t.every((v, i) => i === 0 || v > t[i - 1]!)).toBe(true);
+    expect(angle.every(Number.isFinite)).toBe(true);
+    expect(new Set(angle).size).toBeGreaterThan(10);
+  });
+
+  it('paces a real-time run by the wall clock and stops on request', async () => {
+    const client = connect();
+    const done = collect(client);
+    const started = performance.now();
+    const ack = await start(client, { scenarioId: scenarioIds[0], speed: 1 });
+    if (ack.status !== 'ok') throw new Error(JSON.stringify(ack));
+    await new Promise((r) => setTimeout(r, 300));
+    const stopAck = await new Promise<Ack<{ runId: string }>>((resolve) => client.emit('run:stop', { runId: ack.data.runId }, resolve));
+    expect(stopAck.status).toBe('ok');
+    const { frames, end } = await done;
+    expect(end.reason).toBe('stopped');
+    const wall = (performance.now() - started) / 1000;
+    // Real time: the run cannot be far ahead of the wall clock (one frame interval of slack).
+    expect(end.simulatedTime).toBeLessThanOrEqual(wall + 0.1);
+    expect(end.simulatedTime).toBeGreaterThan(0.1);
+    expect(frames.length).toBeGreaterThan(3);
+  });
+
+  it('answers an invalid inline scenario with field errors and keeps serving other clients', async () => {
+    const bad = connect();
+    const good = connect();
+    const errorEvent = new Promise((resolve) => bad.once('run:error', resolve));
+    const ack = await start(bad, {
+      scenario: { kind: 'kinetwin/scenario', version: 1, name: 'x', joint: { inertia: -1, damping: 0, stiffness: 0 }, controller: { mode: 'pid' }, horizon: 1 },
+    });
+    expect(ack.status).toBe('error');
+    if (ack.status === 'error') expect(ack.errors).toContainEqual({ field: 'scenario.joint.inertia', message: 'inertia must be positive' });
+    expect(await errorEvent).toMatchObject({ runId: null, errors: expect.any(Array) });
+
+    for (const junk of [null, 42, 'run', { scenarioId: 'abc' }, { scenarioId: 1, scenario: {} }, { scenarioId: 1, speed: 1000 }]) {
+      const reply = await start(bad, junk);
+      expect(reply.status, JSON.stringify(junk)).toBe('error');
+    }
+    const missing = await start(bad, { scenarioId: 987654 });
+    expect(missing).toMatchObject({ status: 'error', errors: [{ field: 'scenarioId' }] });
+    // An event without an acknowledgement must not throw on the server either.
+    bad.emit('run:start', { scenarioId: -1 } as RunStartRequest, undefined as never);
+
+    const done = collect(good);
+    expect((await start(good, { scenarioId: scenarioIds[1], speed: 0 })).status).toBe('ok');
+    expect((await done).end.reason).toBe('finished');
+  });
+
+  it('stops a runaway scenario at a bound with a message and no NaN', async () => {
+    const client = connect();
+    const done = collect(client);
+    const ack = await start(client, {
+      speed: 0,
+      dt: 0.01,
+      scenario: {
+        kind: 'kinetwin/scenario',
+        version: 1,
+        name: 'runaway',
+        joint: { inertia: 1, damping: 0, stiffness: 0 },
+        controller: { mode: 'pid', kp: 1, ki: 100, kd: 0 },
+        inputs: [{ channel: 'reference', shape: 'step', amplitude: 1 }],
+        horizon: 600,
+      },
+    });
+    expect(ack.status).toBe('ok');
+    const { frames, end } = await done;
+    expect(end.reason).toBe('bound');
+    expect(end.message).toMatch(/runs away/);
+    expect(frames.flatMap((f) => f.angle).every(Number.isFinite)).toBe(true);
+  });
+
+  it('frees the live run when its client disconnects', async () => {
+    const client = connect();
+    const ack = await start(client, { scenarioId: scenarioIds[0], speed: 0.1 });
+    expect(ack.status).toBe('ok');
+    const before = t.server.liveRuns();
+    client.disconnect();
+    await new Promise((r) => setTimeout(r, 100));
+    expect(t.server.liveRuns()).toBe(before - 1);
+  });
+});
