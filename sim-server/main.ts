@@ -3,7 +3,7 @@ import { readConfig } from './config';
 import { createKinetwinServer } from './create-app';
 import { openDatabase, pingDatabase } from './db/database';
 import { runMigrations } from './db/migrate';
-import { seedDemo } from './db/seed-demo';
+import { DEMO_ACCOUNTS, seedDemo } from './db/seed-demo';
 import { createLogger } from './logging/logger';
 
 const version = (JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')) as { version: string }).version;
@@ -52,6 +52,9 @@ async function main() {
     logger.info({ host: config.host, port, mode: config.mode, version }, 'kinetwin listening');
     // Parsed by scripts and read by people: keep this line's shape.
     process.stdout.write(`Kinetwin ${version} is up: http://${config.host}:${port}/\n`);
+    if (config.mode === 'demo') {
+      for (const account of DEMO_ACCOUNTS) process.stdout.write(`  demo sign-in (${account.role}): ${account.email} / ${account.password}\n`);
+    }
   });
 
   let stopping = false;
