@@ -1,7 +1,8 @@
-import { z } from 'zod';
-import { scenarioSchema } from '../scenario/scenario-schema';
 import type { FieldError } from '../validation/field-errors';
 import type { AckCallback } from './ack';
+import type { RunStartRequest, RunStopRequest } from './run-requests';
+
+export type { RunStartRequest, RunStopRequest };
 
 /** socket.io namespace for live runs. */
 export const RUN_NAMESPACE = '/runs';
@@ -11,27 +12,6 @@ export const MIN_RUN_SPEED = 0.1;
 export const MAX_RUN_SPEED = 10;
 /** Output spacing of a live run's samples, s: fine enough to draw, coarse enough to stream. */
 export const DEFAULT_RUN_DT = 0.002;
-
-export const runStartSchema = z
-  .strictObject({
-    /** Run a stored scenario by id, or the scenario given inline (the bench's unsaved edits). */
-    scenarioId: z.number().int().positive().optional(),
-    scenario: scenarioSchema.optional(),
-    speed: z
-      .number()
-      .refine((v) => v === 0 || (v >= MIN_RUN_SPEED && v <= MAX_RUN_SPEED), {
-        error: `speed must be 0 (as fast as possible) or between ${MIN_RUN_SPEED} and ${MAX_RUN_SPEED}`,
-      })
-      .default(1),
-    dt: z.number().min(0.0005, { error: 'dt must be at least 0.0005 s' }).max(0.1, { error: 'dt must be at most 0.1 s' }).default(DEFAULT_RUN_DT),
-  })
-  .refine((r) => (r.scenarioId === undefined) !== (r.scenario === undefined), {
-    error: 'give exactly one of scenarioId or scenario',
-  });
-export type RunStartRequest = z.input<typeof runStartSchema>;
-
-export const runStopSchema = z.strictObject({ runId: z.string().min(1).max(64) });
-export type RunStopRequest = z.infer<typeof runStopSchema>;
 
 export interface RunStarted {
   runId: string;

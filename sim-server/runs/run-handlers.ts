@@ -1,9 +1,8 @@
 import { randomUUID } from 'node:crypto';
 import type { Namespace, Socket } from 'socket.io';
 import type { Ack } from '../../shared/protocol/ack';
+import { runStartSchema, runStopSchema } from '../../shared/protocol/run-requests';
 import {
-  runStartSchema,
-  runStopSchema,
   type ClientToServerEvents,
   type InterServerEvents,
   type RunStarted,
