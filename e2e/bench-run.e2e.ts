@@ -60,7 +60,7 @@ describe('bench in Chromium', () => {
   it('refuses a wrong password with a message and shows the demo sign-ins', async () => {
     const page = await browser.context.newPage();
     await page.goto(`${baseUrl}/library`);
-    await page.waitForURL('**/sign-in');
+    await page.waitForURL(/\/sign-in/);
     await expect.poll(() => page.locator('[data-test=demo-accounts]').textContent()).toContain(engineer.email);
     await page.fill('input[name=email]', engineer.email);
     await page.fill('input[name=password]', 'not-the-password');
@@ -103,6 +103,8 @@ describe('bench in Chromium', () => {
     const page = await browser.context.newPage();
     await signInAsEngineer(page);
     await page.locator('[data-test=scenario-row]', { hasText: 'Elbow' }).locator('a[data-test=open-scenario]').click();
+    // Software WebGL compiles the 3D view's shaders on the page's thread: let that finish first.
+    await page.locator('[data-test=joint-view] canvas').waitFor({ timeout: 20_000 });
     await page.click('[data-test=run]');
     await expect.poll(() => page.locator('[data-test=run-status]').textContent()).toMatch(/running/i);
     await page.click('[data-test=stop]');
