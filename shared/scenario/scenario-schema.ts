@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { nonlinearSchema } from './nonlinear-schema';
 
 /**
  * Kinetwin's scenario file, version 1: one joint, its controller, its initial state and the
@@ -90,11 +91,8 @@ export const limitsSchema = z.strictObject({
   steadyStateError: nonNegative('steadyStateError').nullable().default(null),
 });
 
-/**
- * Effects the twin adds to the linear joint. The closed form ignores this block; the twin
- * defines its fields. Kept open here so a file written by a newer twin still loads.
- */
-export const nonlinearSchema = z.looseObject({});
+/** Effects the twin adds to the linear joint; defined beside the twin's other settings. */
+export { nonlinearSchema };
 
 export const scenarioSchema = z
   .strictObject({
