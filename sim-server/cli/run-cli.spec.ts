@@ -1,0 +1,89 @@
+import { describe, expect, it } from 'vitest';
+import { runCli, type CliIo } from './run-cli';
+
+// The whole command flow in-process, with files and streams replaced by memory.
+const scenario = {
+  kind: 'kinetwin/scenario',
+  version: 1,
+  name: 'in-process joint',
+  joint: { inertia: 1, damping: 0.5, stiffness: 2 },
+  controller: { mode: 'open-loop' },
+  inputs: [{ channel: 'torque', shape: 'step', amplitude: 1 }],
+  horizon: 2,
+};
+
+function memoryIo(files: Record<string, string>) {
+  const out: string[] = [];
+  const err: string[] = [];
+  const io: CliIo = {
+    readText: async (path) => {
+      if (!(path in files)) throw Object.assign(new Error(`ENOENT: no such file or directory, open '${path}'`), { code: 'ENOENT' });
+      return files[path]!;
+    },
+    writeOut: async (chunk) => {
+      out.push(chunk);
+    },
+    writeErr: (text) => {
+      err.push(text);
+    },
+  };
+  return { io, out: () => out.join(''), err: () => err.join('') };
+}
+
+const files = {
+  'ok.json': JSON.stringify(scenario),
+  'broken.json': '{ "kind": ',
+  'unstable.json': JSON.stringify({
+    ...scenario,
+    joint: { inertia: 1, damping: 0, stiffness: 0 },
+    controller: { mode: 'pid', kp: 1, ki: 10 },
+    inputs: [{ channel: 'reference', shape: 'step', amplitude: 1 }],
+    limits: { overshootPercent: 10, settlingTime: null, steadyStateError: null },
+  }),
+  'overflow.json': JSON.stringify({ ...scenario, joint: { inertia: 1, damping: 0, stiffness: 0 }, controller: { mode: 'pid', kp: 1, ki: 10 }, initial: { angle: 0.1, velocity: 0 }, inputs: [], horizon: 3600 }),
+  'nolimits.json': JSON.stringify({ ...scenario, inputs: [{ channel: 'torque', shape: 'sine', amplitude: 1, frequency: 1 }] }),
+};
+
+describe('runCli', () => {
+  it('prints the usage for help and exits 0', async () => {
+    const m = memoryIo(files);
+    expect(await runCli(['--help'], m.io)).toBe(0);
+    expect(m.out()).toContain('kinetwin response FILE');
+  });
+
+  it.each([
+    [['response', 'broken.json'], 'not valid JSON'],
+    [['response', 'nowhere.json'], '"FILE": ENOENT'],
+    [['response', 'ok.json', '--format', 'xml'], '"--format"'],
+    [['response', 'ok.json', '--dt', '1e-9'], '"--dt"'],
+    [['check', 'overflow.json'], '"horizon"'],
+    [[], '"command"'],
+  ])('exits 2 for %j, naming the field', async (argv, expected) => {
+    const m = memoryIo(files);
+    expect(await runCli(argv, m.io)).toBe(2);
+    expect(m.err()).toContain(expected);
+  });
+
+  it('check exits 1 for an unstable loop with a limit: metrics undefined, no final value', async () => {
+    const m = memoryIo(files);
+    expect(await runCli(['check', 'unstable.json'], m.io)).toBe(1);
+    const doc = JSON.parse(m.out());
+    expect(doc.finalValue).toMatchObject({ applies: false, value: null });
+    expect(doc.metrics.overshootPercent).toBeNull();
+    expect(doc.stable).toBe(false);
+  });
+
+  it('check exits 0 when the scenario sets no limits, even with no final value', async () => {
+    const m = memoryIo(files);
+    expect(await runCli(['check', 'nolimits.json'], m.io)).toBe(0);
+    expect(JSON.parse(m.out()).finalValue.applies).toBe(false);
+  });
+
+  it('streams a long CSV in chunks that join into one row per grid point', async () => {
+    const m = memoryIo(files);
+    expect(await runCli(['response', 'ok.json', '--dt', '0.0001'], m.io)).toBe(0);
+    const lines = m.out().trim().split('\n');
+    expect(lines).toHaveLength(20002);
+    expect(lines.every((l) => l.split(',').length === 3 && !l.includes('NaN'))).toBe(true);
+  });
+});

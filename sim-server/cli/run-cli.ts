@@ -1,0 +1,55 @@
+import { parseScenarioText } from '../../shared/scenario/parse-scenario';
+import { describeFieldErrors, type FieldError } from '../../shared/validation/field-errors';
+import { parseCliArguments, USAGE } from './cli-arguments';
+import { checkReport, EXIT_INVALID_INPUT, EXIT_OK } from './check-command';
+import { responseChunks } from './response-command';
+import { solveByMethod } from './response-sources';
+
+/** What the command line touches, passed in so the whole flow runs in tests without a process. */
+export interface CliIo {
+  readText(path: string): Promise<string>;
+  /** Resolves once the chunk is handed off (honours back-pressure). */
+  writeOut(chunk: string): Promise<void>;
+  writeErr(text: string): void;
+}
+
+/**
+ * Runs `kinetwin` with the given arguments and returns the exit code: 0 ok, 1 limits not met
+ * (check), 2 invalid input — arguments, an unreadable file, or a scenario the engine refuses,
+ * reported with the field and the reason on stderr (and as JSON on stdout for check).
+ */
+export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
+  const args = parseCliArguments(argv);
+  if (!args.ok) return invalid(io, 'invalid arguments', args.errors, false, `\n${USAGE}`);
+  const cmd = args.value;
+  if (cmd.command === 'help') {
+    await io.writeOut(`${USAGE}\n`);
+    return EXIT_OK;
+  }
+  const asJson = cmd.command === 'check';
+  let text: string;
+  try {
+    text = await io.readText(cmd.file);
+  } catch (err) {
+    return invalid(io, `cannot read ${cmd.file}`, [{ field: 'FILE', message: (err as Error).message }], asJson);
+  }
+  const scenario = parseScenarioText(text);
+  if (!scenario.ok) return invalid(io, `invalid scenario ${cmd.file}`, scenario.errors, asJson);
+  const solved = solveByMethod(cmd.method, scenario.value);
+  if (!solved.ok) return invalid(io, `cannot solve ${cmd.file}`, solved.errors, asJson);
+  if (cmd.command === 'check') {
+    const report = checkReport(scenario.value, solved.value);
+    await io.writeOut(`${JSON.stringify(report.document, null, 2)}\n`);
+    return report.exitCode;
+  }
+  const chunks = responseChunks(solved.value, cmd.dt, cmd.format, scenario.value.horizon);
+  if (!chunks.ok) return invalid(io, 'invalid arguments', chunks.errors, false);
+  for (const chunk of chunks.value) await io.writeOut(chunk);
+  return EXIT_OK;
+}
+
+async function invalid(io: CliIo, what: string, errors: FieldError[], asJson: boolean, extra = ''): Promise<number> {
+  io.writeErr(`kinetwin: ${what}: ${describeFieldErrors(errors)}${extra}\n`);
+  if (asJson) await io.writeOut(`${JSON.stringify({ valid: false, errors }, null, 2)}\n`);
+  return EXIT_INVALID_INPUT;
+}
