@@ -1,8 +1,9 @@
 import type { FieldError } from '../validation/field-errors';
 import type { AckCallback } from './ack';
-import type { RunStartRequest, RunStopRequest } from './run-requests';
+import type { InputTerm } from '../scenario/scenario-schema';
+import type { RunKickRequest, RunScrubRequest, RunSpeedRequest, RunStartRequest, RunStopRequest } from './run-requests';
 
-export type { RunStartRequest, RunStopRequest };
+export type { RunKickRequest, RunScrubRequest, RunSpeedRequest, RunStartRequest, RunStopRequest };
 
 /** socket.io namespace for live runs. */
 export const RUN_NAMESPACE = '/runs';
@@ -31,7 +32,43 @@ export interface RunFrame {
   velocity: number[];
   /** Torque the controller asks for at the joint (N × motor torque), N·m. */
   controllerTorque: number[];
+  /** Drive torque that reached the joint after the torque limit and dead band, N·m. */
+  appliedTorque: number[];
+  /** 1 where the drive request exceeds the torque limit, else 0. */
+  saturating: number[];
+  /** 1 where static friction holds the joint, else 0. */
+  sticking: number[];
 }
+
+/** One recorded sample of a run, as a scrub returns it. */
+export interface RunSample {
+  t: number;
+  angle: number;
+  velocity: number;
+  controllerTorque: number;
+  appliedTorque: number;
+  saturating: boolean;
+  sticking: boolean;
+}
+
+/** Where a live run stands after a pause, resume or speed change. */
+export interface RunControlState {
+  runId: string;
+  state: 'running' | 'paused';
+  /** × real time; 0 = as fast as possible. */
+  speed: number;
+  /** Last simulated time sent to the client, s. */
+  simulatedTime: number;
+}
+
+/** The forcing term a kick appended to the run (its delay is when it acts), for the closed form. */
+export interface RunKicked {
+  runId: string;
+  term: InputTerm;
+}
+
+/** Most recorded samples a live run keeps for scrubbing; older ones are dropped first. */
+export const MAX_SCRUB_HISTORY = 250_000;
 
 export type RunEndReason = 'finished' | 'stopped' | 'bound';
 
@@ -58,6 +95,13 @@ export interface ServerToClientEvents {
 export interface ClientToServerEvents {
   'run:start': (request: RunStartRequest, ack: AckCallback<RunStarted>) => void;
   'run:stop': (request: RunStopRequest, ack: AckCallback<{ runId: string }>) => void;
+  'run:pause': (request: RunStopRequest, ack: AckCallback<RunControlState>) => void;
+  'run:resume': (request: RunStopRequest, ack: AckCallback<RunControlState>) => void;
+  'run:speed': (request: RunSpeedRequest, ack: AckCallback<RunControlState>) => void;
+  /** Pauses the run and answers with the recorded sample nearest to the time asked for. */
+  'run:scrub': (request: RunScrubRequest, ack: AckCallback<RunSample>) => void;
+  /** Appends a forcing term at the twin's current time (a kick). */
+  'run:kick': (request: RunKickRequest, ack: AckCallback<RunKicked>) => void;
 }
 
 export type InterServerEvents = Record<string, never>;

@@ -5,17 +5,20 @@ import { DEFAULT_RUN_DT, MAX_RUN_SPEED, MIN_RUN_SPEED } from './run-events';
 // Runtime validation of live-run requests, apart from the event types so the app's bench can
 // import the protocol without pulling zod into its bundle.
 
+const speedSchema = z
+  .number({ error: 'speed must be a number' })
+  .refine((v) => v === 0 || (v >= MIN_RUN_SPEED && v <= MAX_RUN_SPEED), {
+    error: `speed must be 0 (as fast as possible) or between ${MIN_RUN_SPEED} and ${MAX_RUN_SPEED}`,
+  });
+
+const runId = z.string({ error: 'runId must be text' }).min(1).max(64);
+
 export const runStartSchema = z
   .strictObject({
     /** Run a stored scenario by id, or the scenario given inline (the bench's unsaved edits). */
     scenarioId: z.number().int().positive().optional(),
     scenario: scenarioSchema.optional(),
-    speed: z
-      .number()
-      .refine((v) => v === 0 || (v >= MIN_RUN_SPEED && v <= MAX_RUN_SPEED), {
-        error: `speed must be 0 (as fast as possible) or between ${MIN_RUN_SPEED} and ${MAX_RUN_SPEED}`,
-      })
-      .default(1),
+    speed: speedSchema.default(1),
     dt: z.number().min(0.0005, { error: 'dt must be at least 0.0005 s' }).max(0.1, { error: 'dt must be at most 0.1 s' }).default(DEFAULT_RUN_DT),
   })
   .refine((r) => (r.scenarioId === undefined) !== (r.scenario === undefined), {
@@ -23,6 +26,23 @@ export const runStartSchema = z
   });
 export type RunStartRequest = z.input<typeof runStartSchema>;
 
-export const runStopSchema = z.strictObject({ runId: z.string().min(1).max(64) });
+export const runStopSchema = z.strictObject({ runId });
 export type RunStopRequest = z.infer<typeof runStopSchema>;
+
+export const runSpeedSchema = z.strictObject({ runId, speed: speedSchema });
+export type RunSpeedRequest = z.infer<typeof runSpeedSchema>;
+
+export const runScrubSchema = z.strictObject({ runId, time: z.number({ error: 'time must be a finite number' }).nonnegative({ error: 'time must be zero or more' }) });
+export type RunScrubRequest = z.infer<typeof runScrubSchema>;
+
+/** Kicks are the quick disturbances an engineer pokes a live joint with: impulses and steps. */
+export const runKickSchema = z.strictObject({
+  runId,
+  kick: z.strictObject({
+    channel: z.enum(['reference', 'torque'], { error: 'channel must be "reference" or "torque"' }),
+    shape: z.enum(['impulse', 'step'], { error: 'a kick is an "impulse" (torque only) or a "step"' }),
+    amplitude: z.number({ error: 'amplitude must be a finite number' }),
+  }),
+});
+export type RunKickRequest = z.infer<typeof runKickSchema>;
 

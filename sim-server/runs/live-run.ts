@@ -1,11 +1,19 @@
-import type { RunEnded, RunFrame } from '../../shared/protocol/run-events';
-import type { Scenario } from '../../shared/scenario/scenario-schema';
-import { createTwinRun, type TwinSamples } from '../../shared/twin/twin-run';
+import { MAX_SCRUB_HISTORY, type RunControlState, type RunEnded, type RunFrame, type RunSample } from '../../shared/protocol/run-events';
+import type { RunKickRequest } from '../../shared/protocol/run-requests';
+import type { InputTerm, Scenario } from '../../shared/scenario/scenario-schema';
+import { createTwinRun, type TwinTrace } from '../../shared/twin/twin-run';
+import type { Parsed } from '../../shared/validation/field-errors';
+import { countUpTo, concatTrace, emptyTrace, sliceTrace, toFrame, TraceHistory } from './trace-buffer';
 
 /** Wall time between frames, ms: smooth enough to watch, few enough messages to scale. */
 export const FRAME_INTERVAL_MS = 30;
 /** Simulated time one tick may advance at "as fast as possible", s; keeps each tick short. */
 export const MAX_SIM_PER_FAST_TICK_S = 0.5;
+/**
+ * Longest stretch the twin integrates at once in a live run, s. A kick lands at the twin's own
+ * time, so this bounds how far past the last frame a kick can land.
+ */
+export const LIVE_MAX_CHUNK_S = 0.05;
 
 export interface LiveRunOptions {
   speed: number;
@@ -20,6 +28,13 @@ export interface LiveRunSink {
 export interface LiveRun {
   readonly runId: string;
   stop(): void;
+  pause(): RunControlState;
+  resume(): RunControlState;
+  setSpeed(speed: number): RunControlState;
+  /** Pauses and returns the recorded sample nearest to `time`, or field errors. */
+  scrub(time: number): Parsed<RunSample>;
+  /** Appends an impulse or step at the twin's current time. */
+  kick(kick: RunKickRequest['kick']): Parsed<InputTerm>;
 }
 
 /**
@@ -28,10 +43,20 @@ export interface LiveRun {
  * work and then yields, so many runs share one event loop.
  */
 export function startLiveRun(runId: string, scenario: Scenario, options: LiveRunOptions, sink: LiveRunSink): LiveRun {
-  const twin = createTwinRun(scenario, { dt: options.dt });
-  const startedAt = performance.now();
+  const twin = createTwinRun(scenario, { dt: options.dt, maxChunk: Math.max(options.dt, LIVE_MAX_CHUNK_S) });
+  const history = new TraceHistory(MAX_SCRUB_HISTORY);
+  let speed = options.speed;
+  let paused = false;
   let finished = false;
+  // Pacing: simulated time shown = paceStartSim + (now − paceStartWall) × speed.
+  let paceStartWall = performance.now();
+  let paceStartSim = 0;
+  // The twin integrates in chunks and may run ahead of the wall clock; samples past the paced
+  // time wait here so the stream never shows the future.
+  let ahead: TwinTrace = emptyTrace();
+  let shownTime = 0;
   let cancelPending: (() => void) | null = null;
+
   const schedule = (delayMs: number | null) => {
     if (delayMs === null) {
       const handle = setImmediate(tick);
@@ -42,10 +67,7 @@ export function startLiveRun(runId: string, scenario: Scenario, options: LiveRun
     }
   };
 
-  // The twin integrates in whole chunks and may run ahead of the wall clock; samples past the
-  // paced time wait here so the stream never shows the future.
-  let ahead: TwinSamples | null = null;
-  let shownTime = 0;
+  const state = (): RunControlState => ({ runId, state: paused ? 'paused' : 'running', speed, simulatedTime: shownTime });
 
   const finish = (reason: RunEnded['reason'], message: string) => {
     if (finished) return;
@@ -55,56 +77,82 @@ export function startLiveRun(runId: string, scenario: Scenario, options: LiveRun
   };
 
   const emitUpTo = (target: number) => {
-    if (!ahead) ahead = twin.advance(target);
-    else if (ahead.t.length === 0 || ahead.t[ahead.t.length - 1]! < target) ahead = concat(ahead, twin.advance(target));
-    let cut = 0;
-    while (cut < ahead.t.length && ahead.t[cut]! <= target) cut++;
+    if (ahead.t.length === 0 || ahead.t[ahead.t.length - 1]! < target) ahead = concatTrace(ahead, twin.advance(target));
+    const cut = countUpTo(ahead, target);
     if (cut > 0) {
-      sink.frame(toFrame(runId, slice(ahead, 0, cut)));
-      shownTime = ahead.t[cut - 1]!;
+      const shown = sliceTrace(ahead, 0, cut);
+      history.append(shown);
+      sink.frame(toFrame(runId, shown));
+      shownTime = shown.t[cut - 1]!;
     }
-    ahead = slice(ahead, cut, ahead.t.length);
+    ahead = sliceTrace(ahead, cut, ahead.t.length);
   };
 
-  const tick = () => {
+  function tick() {
     cancelPending = null;
-    if (finished) return;
-    const target =
-      options.speed > 0 ? ((performance.now() - startedAt) / 1000) * options.speed : twin.time + MAX_SIM_PER_FAST_TICK_S;
+    if (finished || paused) return;
+    const target = speed > 0 ? paceStartSim + ((performance.now() - paceStartWall) / 1000) * speed : shownTime + MAX_SIM_PER_FAST_TICK_S;
     emitUpTo(target);
-    const drained = ahead === null || (ahead as TwinSamples).t.length === 0;
+    const drained = ahead.t.length === 0;
     if (twin.stop && drained) return finish('bound', twin.stop.message);
     if (twin.done && drained) return finish('finished', `Reached the horizon, t = ${shownTime.toFixed(3)} s.`);
-    schedule(options.speed > 0 ? FRAME_INTERVAL_MS : null);
+    schedule(speed > 0 ? FRAME_INTERVAL_MS : null);
+  }
+
+  const restartPacing = () => {
+    paceStartWall = performance.now();
+    paceStartSim = shownTime;
   };
+
   schedule(null);
 
   return {
     runId,
     stop: () => finish('stopped', `Stopped at t = ${shownTime.toFixed(3)} s.`),
-  };
-}
-
-function slice(s: TwinSamples, from: number, to: number): TwinSamples {
-  return { t: s.t.subarray(from, to), angle: s.angle.subarray(from, to), velocity: s.velocity.subarray(from, to), controllerTorque: s.controllerTorque.subarray(from, to) };
-}
-
-function concat(a: TwinSamples, b: TwinSamples): TwinSamples {
-  const join = (x: Float64Array, y: Float64Array) => {
-    const out = new Float64Array(x.length + y.length);
-    out.set(x);
-    out.set(y, x.length);
-    return out;
-  };
-  return { t: join(a.t, b.t), angle: join(a.angle, b.angle), velocity: join(a.velocity, b.velocity), controllerTorque: join(a.controllerTorque, b.controllerTorque) };
-}
-
-function toFrame(runId: string, s: TwinSamples): RunFrame {
-  return {
-    runId,
-    t: Array.from(s.t),
-    angle: Array.from(s.angle),
-    velocity: Array.from(s.velocity),
-    controllerTorque: Array.from(s.controllerTorque),
+    pause() {
+      if (!finished && !paused) {
+        paused = true;
+        cancelPending?.();
+        cancelPending = null;
+      }
+      return state();
+    },
+    resume() {
+      if (!finished && paused) {
+        paused = false;
+        restartPacing();
+        schedule(null);
+      }
+      return state();
+    },
+    setSpeed(next: number) {
+      restartPacing();
+      speed = next;
+      if (!finished && !paused) {
+        cancelPending?.();
+        schedule(null);
+      }
+      return state();
+    },
+    scrub(time: number) {
+      if (time > shownTime + 1e-12) {
+        return { ok: false, errors: [{ field: 'time', message: `t = ${time} s is not computed yet; the run has reached t = ${shownTime.toFixed(3)} s` }] };
+      }
+      const sample = history.nearest(time);
+      if (!sample) return { ok: false, errors: [{ field: 'time', message: 'the run has no samples yet' }] };
+      if (time < history.earliest - options.dt) {
+        return { ok: false, errors: [{ field: 'time', message: `samples before t = ${history.earliest.toFixed(3)} s are no longer kept (at most ${MAX_SCRUB_HISTORY} samples)` }] };
+      }
+      if (!finished && !paused) {
+        paused = true;
+        cancelPending?.();
+        cancelPending = null;
+      }
+      return { ok: true, value: sample };
+    },
+    kick(kick) {
+      if (finished) return { ok: false, errors: [{ field: '', message: `the run has ended at t = ${shownTime.toFixed(3)} s; a kick needs a live run` }] };
+      return twin.kick({ ...kick });
+    },
   };
 }

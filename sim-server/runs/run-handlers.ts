@@ -1,15 +1,19 @@
 import { randomUUID } from 'node:crypto';
 import type { Namespace, Socket } from 'socket.io';
 import type { Ack } from '../../shared/protocol/ack';
-import { runStartSchema, runStopSchema } from '../../shared/protocol/run-requests';
+import { runKickSchema, runScrubSchema, runSpeedSchema, runStartSchema, runStopSchema } from '../../shared/protocol/run-requests';
 import {
   type ClientToServerEvents,
   type InterServerEvents,
+  type RunControlState,
+  type RunKicked,
+  type RunSample,
   type RunStarted,
   type ServerToClientEvents,
   type SocketData,
 } from '../../shared/protocol/run-events';
 import type { Scenario } from '../../shared/scenario/scenario-schema';
+import { twinScenarioErrors } from '../../shared/twin/twin-scenario-errors';
 import { parseWith, type FieldError } from '../../shared/validation/field-errors';
 import type { AuthUser } from '../auth/user-store';
 import type { Database } from '../db/database';
@@ -61,6 +65,12 @@ export function registerRunHandlers(nsp: RunNamespace, { db, logger, maxLiveRuns
         } else {
           scenario = parsed.value.scenario!;
         }
+        // Rules of the twin alone (e.g. an encoder needs a sampled controller), named by field.
+        const twinErrors = twinScenarioErrors(scenario);
+        if (twinErrors.length > 0) {
+          const prefix = parsed.value.scenarioId !== undefined ? '' : 'scenario.';
+          return refuse(ack, null, twinErrors.map((e) => ({ field: `${prefix}${e.field}`, message: e.message })));
+        }
         current?.stop();
         if (live >= maxLiveRuns) {
           return refuse(ack, null, [{ field: '', message: `the server is running ${maxLiveRuns} live runs already; try again shortly` }]);
@@ -83,14 +93,61 @@ export function registerRunHandlers(nsp: RunNamespace, { db, logger, maxLiveRuns
       }
     });
 
+    /** The live run a control event names, or field errors saying why there is none. */
+    const runNamed = (runId: string): LiveRun | null => (current && current.runId === runId ? current : null);
+    const noSuchRun = [{ field: 'runId', message: 'no live run with this id on this connection' }];
+
     socket.on('run:stop', (request, ack) => {
       const parsed = parseWith(runStopSchema, request);
       if (!parsed.ok) return refuse(ack, null, parsed.errors);
-      if (!current || current.runId !== parsed.value.runId) {
-        return refuse(ack, parsed.value.runId, [{ field: 'runId', message: 'no live run with this id on this connection' }]);
-      }
-      current.stop();
+      const run = runNamed(parsed.value.runId);
+      if (!run) return refuse(ack, parsed.value.runId, noSuchRun);
+      run.stop();
       replyTo<{ runId: string }>(ack)({ status: 'ok', data: { runId: parsed.value.runId } });
+    });
+
+    socket.on('run:pause', (request, ack) => {
+      const parsed = parseWith(runStopSchema, request);
+      if (!parsed.ok) return refuse(ack, null, parsed.errors);
+      const run = runNamed(parsed.value.runId);
+      if (!run) return refuse(ack, parsed.value.runId, noSuchRun);
+      replyTo<RunControlState>(ack)({ status: 'ok', data: run.pause() });
+    });
+
+    socket.on('run:resume', (request, ack) => {
+      const parsed = parseWith(runStopSchema, request);
+      if (!parsed.ok) return refuse(ack, null, parsed.errors);
+      const run = runNamed(parsed.value.runId);
+      if (!run) return refuse(ack, parsed.value.runId, noSuchRun);
+      replyTo<RunControlState>(ack)({ status: 'ok', data: run.resume() });
+    });
+
+    socket.on('run:speed', (request, ack) => {
+      const parsed = parseWith(runSpeedSchema, request);
+      if (!parsed.ok) return refuse(ack, null, parsed.errors);
+      const run = runNamed(parsed.value.runId);
+      if (!run) return refuse(ack, parsed.value.runId, noSuchRun);
+      replyTo<RunControlState>(ack)({ status: 'ok', data: run.setSpeed(parsed.value.speed) });
+    });
+
+    socket.on('run:scrub', (request, ack) => {
+      const parsed = parseWith(runScrubSchema, request);
+      if (!parsed.ok) return refuse(ack, null, parsed.errors);
+      const run = runNamed(parsed.value.runId);
+      if (!run) return refuse(ack, parsed.value.runId, noSuchRun);
+      const sample = run.scrub(parsed.value.time);
+      if (!sample.ok) return refuse(ack, parsed.value.runId, sample.errors);
+      replyTo<RunSample>(ack)({ status: 'ok', data: sample.value });
+    });
+
+    socket.on('run:kick', (request, ack) => {
+      const parsed = parseWith(runKickSchema, request);
+      if (!parsed.ok) return refuse(ack, null, parsed.errors);
+      const run = runNamed(parsed.value.runId);
+      if (!run) return refuse(ack, parsed.value.runId, noSuchRun);
+      const term = run.kick(parsed.value.kick);
+      if (!term.ok) return refuse(ack, parsed.value.runId, term.errors.map((e) => ({ field: e.field ? `kick.${e.field}` : 'kick', message: e.message })));
+      replyTo<RunKicked>(ack)({ status: 'ok', data: { runId: parsed.value.runId, term: term.value } });
     });
 
     socket.on('disconnect', () => current?.stop());

@@ -131,6 +131,82 @@ describe('live runs over real sockets', () => {
     expect(frames.flatMap((f) => f.angle).every(Number.isFinite)).toBe(true);
   });
 
+  const control = <T>(client: Client, event: 'run:pause' | 'run:resume' | 'run:speed' | 'run:scrub' | 'run:kick', request: unknown) =>
+    new Promise<Ack<T>>((resolve) => (client.emit as (e: string, r: unknown, cb: (a: Ack<T>) => void) => void)(event, request, resolve));
+
+  it('pauses, scrubs back, changes speed, resumes and takes a kick that the stream shows', async () => {
+    const client = connect();
+    const frames: RunFrame[] = [];
+    client.on('run:frame', (f) => frames.push(f));
+    const ended = new Promise<RunEnded>((resolve) => client.once('run:end', resolve));
+    const ack = await start(client, { scenarioId: scenarioIds[0], speed: 1 });
+    if (ack.status !== 'ok') throw new Error(JSON.stringify(ack));
+    const runId = ack.data.runId;
+    await new Promise((r) => setTimeout(r, 250));
+
+    const paused = await control<{ state: string; simulatedTime: number }>(client, 'run:pause', { runId });
+    if (paused.status !== 'ok') throw new Error(JSON.stringify(paused));
+    expect(paused.data.state).toBe('paused');
+    const countAtPause = frames.length;
+    await new Promise((r) => setTimeout(r, 150));
+    expect(frames.length).toBe(countAtPause);
+
+    const sent = frames.flatMap((f) => f.t);
+    const scrub = await control<{ t: number; angle: number }>(client, 'run:scrub', { runId, time: 0.1 });
+    if (scrub.status !== 'ok') throw new Error(JSON.stringify(scrub));
+    expect(scrub.data.t).toBeCloseTo(0.1, 9);
+    const i = sent.findIndex((t) => Math.abs(t - 0.1) < 1e-9);
+    expect(scrub.data.angle).toBe(frames.flatMap((f) => f.angle)[i]);
+    const future = await control(client, 'run:scrub', { runId, time: paused.data.simulatedTime + 1 });
+    expect(future).toMatchObject({ status: 'error', errors: [{ field: 'time', message: expect.stringContaining('not computed yet') }] });
+
+    const kicked = await control<{ term: { delay: number; shape: string } }>(client, 'run:kick', { runId, kick: { channel: 'torque', shape: 'impulse', amplitude: 0.02 } });
+    if (kicked.status !== 'ok') throw new Error(JSON.stringify(kicked));
+    // The kick lands at the twin's own time: at or after what was shown, within one live chunk.
+    expect(kicked.data.term.delay).toBeGreaterThanOrEqual(paused.data.simulatedTime);
+    expect(kicked.data.term.delay - paused.data.simulatedTime).toBeLessThanOrEqual(0.05 + 1e-9);
+    const badKick = await control(client, 'run:kick', { runId, kick: { channel: 'reference', shape: 'impulse', amplitude: 1 } });
+    expect(badKick.status).toBe('error');
+
+    const fast = await control<{ speed: number; state: string }>(client, 'run:speed', { runId, speed: 0 });
+    expect(fast).toMatchObject({ status: 'ok', data: { speed: 0, state: 'paused' } });
+    expect(await control(client, 'run:speed', { runId, speed: 50 })).toMatchObject({ status: 'error' });
+    expect(await control(client, 'run:resume', { runId })).toMatchObject({ status: 'ok', data: { state: 'running' } });
+    expect((await ended).reason).toBe('finished');
+
+    // The impulse shows as a velocity jump of A/J at the kick time (J = 0.012 kg·m² in the demo wrist).
+    const t = frames.flatMap((f) => f.t);
+    const v = frames.flatMap((f) => f.velocity);
+    const k = t.findIndex((x) => x >= kicked.data.term.delay - 1e-12);
+    expect(v[k + 1]! - v[k - 1]!).toBeGreaterThan(0.5 * (0.02 / 0.012));
+    expect(frames[0]).toHaveProperty('appliedTorque');
+    expect(frames[0]).toHaveProperty('saturating');
+  });
+
+  it('refuses a scenario that breaks a rule of the twin, naming the field', async () => {
+    const client = connect();
+    const ack = await start(client, {
+      scenario: {
+        kind: 'kinetwin/scenario',
+        version: 1,
+        name: 'encoder without sampling',
+        joint: { inertia: 1, damping: 0.1, stiffness: 0 },
+        controller: { mode: 'pid', kp: 1 },
+        nonlinear: { encoderCounts: 4096 },
+        horizon: 1,
+      },
+    });
+    expect(ack).toMatchObject({ status: 'error', errors: [{ field: 'scenario.nonlinear.encoderCounts', message: expect.stringContaining('samplePeriod') }] });
+  });
+
+  it('answers control events for a run that is not there with a field error', async () => {
+    const client = connect();
+    for (const event of ['run:pause', 'run:resume', 'run:scrub', 'run:kick', 'run:speed'] as const) {
+      const reply = await control(client, event, { runId: 'no-such-run', time: 0, speed: 1, kick: { channel: 'torque', shape: 'step', amplitude: 1 } });
+      expect(reply, event).toMatchObject({ status: 'error' });
+    }
+  });
+
   it('frees the live run when its client disconnects', async () => {
     const client = connect();
     const ack = await start(client, { scenarioId: scenarioIds[0], speed: 0.1 });
