@@ -1,3 +1,7 @@
+import type { CheckVerdict } from '../../shared/checks/check-verdict';
+import { linearRange } from '../../shared/checks/linear-range';
+import { shiftCheck } from '../../shared/checks/shift-check';
+import { superpositionCheck } from '../../shared/checks/superposition-check';
 import { type Scenario } from '../../shared/scenario/scenario-schema';
 import { closedFormReport } from './closed-form-report';
 import { checkLimits } from './limits-check';
@@ -17,10 +21,29 @@ export const EXIT_INVALID_INPUT = 2;
  * not met, 0 otherwise.
  */
 export function checkReport(scenario: Scenario, solved: SolvedScenario): { document: object; exitCode: number } {
-  const limits = checkLimits(scenario.limits, solved.closedForm.metrics, solved.closedForm.metricsReason);
+  const closedForm = solved.closedForm!;
+  const limits = checkLimits(scenario.limits, closedForm.metrics, closedForm.metricsReason);
   const passed = limits.every((l) => l.met);
+  // The twin's checks say how far the closed form can be trusted; they inform, the limits decide.
+  const superposition = superpositionCheck(scenario);
+  const shift = shiftCheck(scenario);
+  const range = linearRange(scenario);
   return {
-    document: { ...closedFormReport(solved.closedForm), limits, passed, safety: SAFETY_NOTICE },
+    document: {
+      ...closedFormReport(closedForm),
+      limits,
+      passed,
+      superposition: verdict(superposition),
+      shift: verdict(shift),
+      linearRange: range.scale,
+      linearRangeDetail: { smallestScale: range.smallestScale, passesAtMax: range.passesAtMax, summary: range.summary },
+      safety: SAFETY_NOTICE,
+    },
     exitCode: passed ? EXIT_OK : EXIT_LIMITS_NOT_MET,
   };
+}
+
+/** The four stable keys of a check; an infinite deviation (a run hit a bound) prints as null. */
+function verdict(check: CheckVerdict) {
+  return { pass: check.pass, worst: Number.isFinite(check.worst) ? check.worst : null, threshold: check.threshold, reason: check.reason };
 }

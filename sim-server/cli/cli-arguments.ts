@@ -5,11 +5,8 @@ import { type FieldError, type Parsed } from '../../shared/validation/field-erro
 export const DEFAULT_RESPONSE_DT = 0.001;
 export const RESPONSE_FORMATS = ['csv', 'json'] as const;
 export type ResponseFormat = (typeof RESPONSE_FORMATS)[number];
-/**
- * Where the numbers come from. Only the closed form exists today; the simulation twin adds
- * "sim" and "both" here (and an entry in response-sources.ts) without touching the commands.
- */
-export const RESPONSE_METHODS = ['closed-form'] as const;
+/** Where the numbers come from: the closed form, the simulated twin, or both side by side. */
+export const RESPONSE_METHODS = ['closed-form', 'sim', 'both'] as const;
 export type ResponseMethod = (typeof RESPONSE_METHODS)[number];
 
 export type CliCommand =
@@ -18,10 +15,12 @@ export type CliCommand =
   | { command: 'help' };
 
 export const USAGE = `usage:
-  kinetwin response FILE [--dt 0.001] [--format csv|json]
-      closed-form angle and velocity of a scenario on 0, dt, …, horizon
+  kinetwin response FILE [--dt 0.001] [--format csv|json] [--method closed-form|sim|both]
+      angle and velocity of a scenario on 0, dt, …, horizon: from the closed form (default),
+      the simulated twin, or both with the residual twin − closed form
   kinetwin check FILE
-      poles, theorem verdicts and step metrics as JSON; exit 1 when the scenario's limits are not met
+      poles, theorem verdicts, step metrics, superposition and shift checks and the linear range
+      as JSON; exit 1 when the scenario's limits are not met
 exit codes: 0 ok, 1 limits not met (check), 2 invalid input`;
 
 /**
@@ -38,6 +37,7 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
       options: {
         dt: { type: 'string' },
         format: { type: 'string' },
+        method: { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -53,11 +53,10 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   if (command !== 'response' && command !== 'check') return fail('command', `unknown command "${command}": use "response" or "check"`);
   if (file === undefined) return fail('FILE', `${command} needs a scenario FILE`);
   if (extra.length > 0) return fail('', `unexpected argument "${extra[0]}"`);
-  const method: ResponseMethod = 'closed-form';
   if (command === 'check') {
-    const stray = (['dt', 'format'] as const).find((k) => values[k] !== undefined);
+    const stray = (['dt', 'format', 'method'] as const).find((k) => values[k] !== undefined);
     if (stray) return fail(`--${stray}`, `--${stray} belongs to "response", not "check"`);
-    return { ok: true, value: { command, file, method } };
+    return { ok: true, value: { command, file, method: 'closed-form' } };
   }
   const errors: FieldError[] = [];
   let dt = DEFAULT_RESPONSE_DT;
@@ -68,8 +67,10 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   }
   const format = (values['format'] ?? 'csv') as string;
   if (!(RESPONSE_FORMATS as readonly string[]).includes(format)) errors.push({ field: '--format', message: `--format must be csv or json, got "${format}"` });
+  const method = (values['method'] ?? 'closed-form') as string;
+  if (!(RESPONSE_METHODS as readonly string[]).includes(method)) errors.push({ field: '--method', message: `--method must be closed-form, sim or both, got "${method}"` });
   if (errors.length > 0) return { ok: false, errors };
-  return { ok: true, value: { command, file, dt, format: format as ResponseFormat, method } };
+  return { ok: true, value: { command, file, dt, format: format as ResponseFormat, method: method as ResponseMethod } };
 }
 
 function fail(field: string, message: string): { ok: false; errors: FieldError[] } {

@@ -41,6 +41,13 @@ const files = {
     limits: { overshootPercent: 10, settlingTime: null, steadyStateError: null },
   }),
   'overflow.json': JSON.stringify({ ...scenario, joint: { inertia: 1, damping: 0, stiffness: 0 }, controller: { mode: 'pid', kp: 1, ki: 10 }, initial: { angle: 0.1, velocity: 0 }, inputs: [], horizon: 3600 }),
+  'limited.json': JSON.stringify({
+    ...scenario,
+    controller: { mode: 'pid', kp: 20, kd: 4 },
+    inputs: [{ channel: 'reference', shape: 'step', amplitude: 1 }],
+    nonlinear: { torqueLimit: 2 },
+  }),
+  'encoder-continuous.json': JSON.stringify({ ...scenario, controller: { mode: 'pid', kp: 2 }, inputs: [], nonlinear: { encoderCounts: 1024 } }),
   'nolimits.json': JSON.stringify({ ...scenario, inputs: [{ channel: 'torque', shape: 'sine', amplitude: 1, frequency: 1 }] }),
 };
 
@@ -58,6 +65,9 @@ describe('runCli', () => {
     [['response', 'ok.json', '--dt', '1e-9'], '"--dt"'],
     [['check', 'overflow.json'], '"horizon"'],
     [[], '"command"'],
+    [['response', 'ok.json', '--method', 'guess'], '"--method"'],
+    [['check', 'ok.json', '--method', 'sim'], '"--method"'],
+    [['response', 'encoder-continuous.json', '--method', 'sim'], '"nonlinear.encoderCounts"'],
   ])('exits 2 for %j, naming the field', async (argv, expected) => {
     const m = memoryIo(files);
     expect(await runCli(argv, m.io)).toBe(2);
@@ -85,5 +95,47 @@ describe('runCli', () => {
     const lines = m.out().trim().split('\n');
     expect(lines).toHaveLength(20002);
     expect(lines.every((l) => l.split(',').length === 3 && !l.includes('NaN'))).toBe(true);
+  });
+
+  it('prints the twin with --method sim and the twin beside the closed form with --method both', async () => {
+    const sim = memoryIo(files);
+    expect(await runCli(['response', 'ok.json', '--method', 'sim', '--dt', '0.01'], sim.io)).toBe(0);
+    const simRows = sim.out().trim().split('\n');
+    expect(simRows[0]).toBe('t,angle,velocity');
+    expect(simRows).toHaveLength(202);
+
+    const both = memoryIo(files);
+    expect(await runCli(['response', 'ok.json', '--method', 'both', '--dt', '0.01'], both.io)).toBe(0);
+    const rows = both.out().trim().split('\n');
+    expect(rows[0]).toBe('t,angle,velocity,twinAngle,twinVelocity,residual');
+    // With every effect off the twin is the linear model: the residual stays at integration error.
+    const worst = Math.max(...rows.slice(1).map((r) => Math.abs(Number(r.split(',')[5]))));
+    expect(worst).toBeLessThan(1e-8);
+    // Same twin numbers whichever way they were asked for.
+    expect(rows[150]!.split(',')[3]).toBe(simRows[150]!.split(',')[1]);
+
+    const json = memoryIo(files);
+    expect(await runCli(['response', 'ok.json', '--method', 'both', '--dt', '0.5', '--format', 'json'], json.io)).toBe(0);
+    const doc = JSON.parse(json.out());
+    expect(doc).toMatchObject({ method: 'both', twinStop: null, t: [0, 0.5, 1, 1.5, 2] });
+    expect(doc.residual).toHaveLength(5);
+  });
+
+  it('check reports superposition, shift and the linear range, and explains a torque limit', async () => {
+    const linear = memoryIo(files);
+    expect(await runCli(['check', 'ok.json'], linear.io)).toBe(0);
+    const ok = JSON.parse(linear.out());
+    expect(ok.superposition).toMatchObject({ pass: true, threshold: 1e-4 });
+    expect(ok.shift).toMatchObject({ pass: true });
+    expect(ok.linearRange).toBe(1000);
+
+    const limited = memoryIo(files);
+    expect(await runCli(['check', 'limited.json'], limited.io)).toBe(0);
+    const doc = JSON.parse(limited.out());
+    expect(doc.superposition.pass).toBe(false);
+    expect(doc.superposition.reason).toMatch(/torque limit/);
+    // The step asks for 20 N·m at first; a 2 N·m limit leaves roughly a tenth of it linear.
+    expect(doc.linearRange).toBeGreaterThan(0.05);
+    expect(doc.linearRange).toBeLessThan(0.2);
   });
 });

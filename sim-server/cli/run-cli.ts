@@ -1,8 +1,9 @@
 import { parseScenarioText } from '../../shared/scenario/parse-scenario';
 import { describeFieldErrors, type FieldError } from '../../shared/validation/field-errors';
-import { parseCliArguments, USAGE } from './cli-arguments';
+import { twinScenarioErrors } from '../../shared/twin/twin-scenario-errors';
+import { DEFAULT_RESPONSE_DT, parseCliArguments, USAGE } from './cli-arguments';
 import { checkReport, EXIT_INVALID_INPUT, EXIT_OK } from './check-command';
-import { responseChunks } from './response-command';
+import { checkGridSize, responseChunks } from './response-command';
 import { solveByMethod } from './response-sources';
 
 /** What the command line touches, passed in so the whole flow runs in tests without a process. */
@@ -35,16 +36,25 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
   }
   const scenario = parseScenarioText(text);
   if (!scenario.ok) return invalid(io, `invalid scenario ${cmd.file}`, scenario.errors, asJson);
-  const solved = solveByMethod(cmd.method, scenario.value);
-  if (!solved.ok) return invalid(io, `cannot solve ${cmd.file}`, solved.errors, asJson);
   if (cmd.command === 'check') {
+    const solved = solveByMethod('closed-form', scenario.value, DEFAULT_RESPONSE_DT);
+    if (!solved.ok) return invalid(io, `cannot solve ${cmd.file}`, solved.errors, asJson);
+    const twinErrors = twinScenarioErrors(scenario.value);
+    if (twinErrors.length > 0) return invalid(io, `the twin cannot run ${cmd.file}`, twinErrors, asJson);
     const report = checkReport(scenario.value, solved.value);
     await io.writeOut(`${JSON.stringify(report.document, null, 2)}\n`);
     return report.exitCode;
   }
+  // Size the grid before solving: a twin run on a too-fine grid would cost minutes and memory.
+  const grid = checkGridSize(cmd.dt, scenario.value.horizon);
+  if (!grid.ok) return invalid(io, 'invalid arguments', grid.errors, false);
+  const solved = solveByMethod(cmd.method, scenario.value, cmd.dt);
+  if (!solved.ok) return invalid(io, `cannot solve ${cmd.file}`, solved.errors, asJson);
   const chunks = responseChunks(solved.value, cmd.dt, cmd.format, scenario.value.horizon);
   if (!chunks.ok) return invalid(io, 'invalid arguments', chunks.errors, false);
   for (const chunk of chunks.value) await io.writeOut(chunk);
+  const stop = solved.value.twin?.stop;
+  if (stop) io.writeErr(`kinetwin: the twin stopped early: ${stop.message}\n`);
   return EXIT_OK;
 }
 
