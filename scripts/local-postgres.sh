@@ -2,6 +2,7 @@
 # A project-local PostgreSQL cluster for `npm start` and `npm test` when DATABASE_URL is not set.
 #   scripts/local-postgres.sh start         install Debian's server if missing, init, start (idempotent)
 #   scripts/local-postgres.sh stop          stop the cluster if it runs
+#   scripts/local-postgres.sh running       exit 0 when the cluster is up (callers then leave it up)
 #   scripts/local-postgres.sh create-db DB  create DB if it does not exist
 #   scripts/local-postgres.sh recreate-db DB   drop and create DB (the test run's fresh database)
 #   scripts/local-postgres.sh url DB        print the connection URL for DB
@@ -105,6 +106,7 @@ recreate_db() {
 case "${1:-}" in
   start) start ;;
   stop) stop ;;
+  running) [ -n "$(bin_dir)" ] && pg_running ;;
   create-db) create_db "${2:?database name}" ;;
   recreate-db) recreate_db "${2:?database name}" ;;
   url) valid_db_name "${2:?database name}"; printf 'postgres://%s@127.0.0.1:%s/%s\n' "$db_user" "$port" "$2" ;;

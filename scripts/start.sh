@@ -15,8 +15,9 @@ trap cleanup EXIT
 trap 'exit 130' INT TERM
 
 if [ -z "${DATABASE_URL:-}" ]; then
+  # Stop the cluster on exit only if this script started it (another command may be using it).
+  scripts/local-postgres.sh running || own_cluster=1
   scripts/local-postgres.sh start
-  own_cluster=1
   scripts/local-postgres.sh create-db kinetwin
   DATABASE_URL=$(scripts/local-postgres.sh url kinetwin)
   export DATABASE_URL

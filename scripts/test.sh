@@ -76,7 +76,9 @@ run unit npx vitest run --config vitest.config.ts
 run app npx ng test --watch=false
 
 if [ -z "${DATABASE_URL:-}" ]; then
-  scripts/local-postgres.sh start && own_cluster=1
+  # Stop the cluster on exit only if this script started it (another command may be using it).
+  scripts/local-postgres.sh running || own_cluster=1
+  scripts/local-postgres.sh start
   scripts/local-postgres.sh recreate-db kinetwin_test
   DATABASE_URL=$(scripts/local-postgres.sh url kinetwin_test)
   export DATABASE_URL

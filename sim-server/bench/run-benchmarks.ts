@@ -1,0 +1,44 @@
+import os from 'node:os';
+import type { BenchResult } from './bench-result';
+import { benchClosedForm } from './closed-form-bench';
+import { benchLiveSessions } from './live-sessions-bench';
+import { benchTwin } from './twin-bench';
+
+/**
+ * `npm run bench`: measures and prints every figure the README records, as a markdown table.
+ * Benchmarks, not tests: nothing here passes or fails.
+ */
+async function main() {
+  const databaseUrl = process.env['DATABASE_URL'];
+  if (!databaseUrl) {
+    process.stderr.write('bench: DATABASE_URL is required for the live-session figure (npm run bench sets it)\n');
+    process.exit(2);
+  }
+  const started = new Date();
+  const sections: [string, () => Promise<BenchResult[]>][] = [
+    ['closed form', benchClosedForm],
+    ['twin', benchTwin],
+    ['live runs', () => benchLiveSessions(databaseUrl)],
+  ];
+  const rows: [string, BenchResult][] = [];
+  for (const [section, run] of sections) {
+    process.stdout.write(`measuring: ${section} …\n`);
+    for (const result of await run()) rows.push([section, result]);
+  }
+  const cpus = os.cpus();
+  process.stdout.write(
+    `\nKinetwin benchmarks, ${started.toISOString().slice(0, 10)}, Node ${process.version}, ${cpus.length} × ${cpus[0]?.model.trim() ?? 'unknown CPU'}, load average ${os.loadavg()[0]!.toFixed(1)}\n\n`,
+  );
+  process.stdout.write('| part | figure | median | runs | goal |\n|---|---|---|---|---|\n');
+  for (const [section, r] of rows) {
+    process.stdout.write(`| ${section} | ${r.name} | ${format(r.median)} ${r.unit} | ${r.runs} | ${r.goal ?? '—'} |\n`);
+  }
+}
+
+function format(x: number): string {
+  if (!Number.isFinite(x)) return String(x);
+  const abs = Math.abs(x);
+  return abs >= 100 ? x.toFixed(0) : abs >= 10 ? x.toFixed(1) : abs >= 1 ? x.toFixed(2) : x.toPrecision(3);
+}
+
+void main();
