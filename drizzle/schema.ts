@@ -1,7 +1,10 @@
-import { index, integer, json, jsonb, pgEnum, pgTable, serial, text, timestamp, varchar } from 'drizzle-orm/pg-core';
+import { sql } from 'drizzle-orm';
+import { type AnyPgColumn, index, integer, json, jsonb, pgEnum, pgTable, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
 import { roles } from '../shared/protocol/api-types';
+import { handoffAccesses } from '../shared/protocol/library-api';
 
 export const roleEnum = pgEnum('role', roles);
+export const handoffAccessEnum = pgEnum('handoff_access', handoffAccesses);
 
 /** A team owns its members and its scenarios; nothing crosses between teams. */
 export const teams = pgTable('teams', {
@@ -21,6 +24,10 @@ export const users = pgTable('users', {
   passwordHash: text('password_hash').notNull(),
   role: roleEnum('role').notNull().default('engineer'),
   createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  /** Stored in each session; raising it signs the user out everywhere. */
+  sessionGeneration: integer('session_generation').notNull().default(0),
+  /** Set when an admin removes the member: no sign-in, sessions end, authorship stays. */
+  deactivatedAt: timestamp('deactivated_at', { withTimezone: true }),
 });
 
 export const scenarios = pgTable(
@@ -40,8 +47,150 @@ export const scenarios = pgTable(
     demoKey: text('demo_key').unique(),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
+    /** Number of the newest revision, whose document `document` mirrors; 0 before the first. */
+    headRevision: integer('head_revision').notNull().default(0),
+    tags: text('tags').array().notNull().default(sql`'{}'::text[]`),
+    /** Soft delete: set when archived, cleared when restored. */
+    archivedAt: timestamp('archived_at', { withTimezone: true }),
   },
   (table) => [index('scenarios_team_idx').on(table.teamId)],
+);
+
+/** Every save of a scenario; append-only, and a signed-off row never changes again. */
+export const scenarioRevisions = pgTable(
+  'scenario_revisions',
+  {
+    id: serial('id').primaryKey(),
+    scenarioId: integer('scenario_id')
+      .notNull()
+      .references(() => scenarios.id),
+    /** 1, 2, 3 … within the scenario. */
+    number: integer('number').notNull(),
+    document: jsonb('document').notNull(),
+    note: text('note').notNull().default(''),
+    authorId: integer('author_id')
+      .notNull()
+      .references(() => users.id),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+    signedOffBy: integer('signed_off_by').references(() => users.id),
+    signedOffAt: timestamp('signed_off_at', { withTimezone: true }),
+    signOffNote: text('sign_off_note'),
+  },
+  (table) => [unique('scenario_revisions_number_unique').on(table.scenarioId, table.number)],
+);
+
+/** Admin invitations; the link token is stored only as its SHA-256. */
+export const invitations = pgTable('invitations', {
+  id: serial('id').primaryKey(),
+  teamId: integer('team_id')
+    .notNull()
+    .references(() => teams.id),
+  email: varchar('email', { length: 254 }).notNull(),
+  role: roleEnum('role').notNull(),
+  tokenHash: text('token_hash').notNull().unique(),
+  invitedBy: integer('invited_by')
+    .notNull()
+    .references(() => users.id),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  acceptedAt: timestamp('accepted_at', { withTimezone: true }),
+  revokedAt: timestamp('revoked_at', { withTimezone: true }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** Password-reset links; the token is stored only as its SHA-256. */
+export const passwordResets = pgTable('password_resets', {
+  id: serial('id').primaryKey(),
+  userId: integer('user_id')
+    .notNull()
+    .references(() => users.id),
+  tokenHash: text('token_hash').notNull().unique(),
+  expiresAt: timestamp('expires_at', { withTimezone: true }).notNull(),
+  usedAt: timestamp('used_at', { withTimezone: true }),
+  createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+});
+
+/** A scenario handed to a teammate; handing it again to the same person replaces the row. */
+export const handoffs = pgTable(
+  'handoffs',
+  {
+    id: serial('id').primaryKey(),
+    teamId: integer('team_id')
+      .notNull()
+      .references(() => teams.id),
+    scenarioId: integer('scenario_id')
+      .notNull()
+      .references(() => scenarios.id),
+    fromUserId: integer('from_user_id')
+      .notNull()
+      .references(() => users.id),
+    toUserId: integer('to_user_id')
+      .notNull()
+      .references(() => users.id),
+    access: handoffAccessEnum('access').notNull(),
+    message: text('message').notNull().default(''),
+    revisionNumber: integer('revision_number').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [unique('handoffs_scenario_recipient_unique').on(table.scenarioId, table.toUserId), index('handoffs_to_idx').on(table.toUserId)],
+);
+
+/** Comments on a revision; a reply points at its parent in the same revision. */
+export const comments = pgTable(
+  'comments',
+  {
+    id: serial('id').primaryKey(),
+    scenarioId: integer('scenario_id')
+      .notNull()
+      .references(() => scenarios.id),
+    revisionId: integer('revision_id')
+      .notNull()
+      .references(() => scenarioRevisions.id),
+    parentId: integer('parent_id').references((): AnyPgColumn => comments.id),
+    authorId: integer('author_id')
+      .notNull()
+      .references(() => users.id),
+    body: text('body').notNull(),
+    mentionedUserIds: integer('mentioned_user_ids').array().notNull().default(sql`'{}'::integer[]`),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index('comments_scenario_idx').on(table.scenarioId)],
+);
+
+/** Who did what, when: per team, and per scenario where there is one. */
+export const activity = pgTable(
+  'activity',
+  {
+    id: serial('id').primaryKey(),
+    teamId: integer('team_id')
+      .notNull()
+      .references(() => teams.id),
+    scenarioId: integer('scenario_id').references(() => scenarios.id),
+    actorId: integer('actor_id')
+      .notNull()
+      .references(() => users.id),
+    action: text('action').notNull(),
+    detail: jsonb('detail').notNull().default({}),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index('activity_team_idx').on(table.teamId, table.createdAt), index('activity_scenario_idx').on(table.scenarioId, table.createdAt)],
+);
+
+/** The fake mail transport's outbox (MAIL_TRANSPORT=outbox), shown to admins at /api/dev/mailbox. */
+export const outbox = pgTable(
+  'outbox',
+  {
+    id: serial('id').primaryKey(),
+    /** Team the message concerns, so an admin sees only their own team's mail. */
+    teamId: integer('team_id').references(() => teams.id),
+    messageId: text('message_id').notNull(),
+    fromAddress: text('from_address').notNull(),
+    toAddress: text('to_address').notNull(),
+    subject: text('subject').notNull(),
+    text: text('text').notNull(),
+    html: text('html').notNull(),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index('outbox_team_idx').on(table.teamId)],
 );
 
 /** Cookie sessions, in the layout connect-pg-simple reads and writes. */

@@ -13,10 +13,21 @@ export interface ServerConfig {
   /** Failed sign-in attempts allowed per address and e-mail within signInWindowMinutes. */
   signInLimit: number;
   signInWindowMinutes: number;
+  /** Sign-ups, invitation look-ups and password-reset requests allowed per address within signInWindowMinutes. */
+  accountRequestLimit: number;
   /** Live runs one server accepts at once; more are refused with a message. */
   maxLiveRuns: number;
   /** Folder of the built Angular app, served at /. */
   staticDir: string;
+  /** outbox: messages are written to the outbox table (default); smtp: sent through smtpUrl. */
+  mailTransport: 'outbox' | 'smtp';
+  smtpUrl: string | null;
+  /** From address of every message the server sends. */
+  mailFrom: string;
+  /** Origin the app is reached at; e-mailed links start with it, and unsafe requests may come from it. */
+  appBaseUrl: string;
+  invitationTtlHours: number;
+  passwordResetTtlMinutes: number;
 }
 
 const envSchema = z.object({
@@ -30,8 +41,15 @@ const envSchema = z.object({
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
   SIGN_IN_LIMIT: z.coerce.number().int().positive().default(10),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(10),
+  ACCOUNT_REQUEST_LIMIT: z.coerce.number().int().positive().default(20),
   MAX_LIVE_RUNS: z.coerce.number().int().positive().default(200),
   STATIC_DIR: z.string().default('dist/app/browser'),
+  MAIL_TRANSPORT: z.enum(['outbox', 'smtp'], { error: 'MAIL_TRANSPORT must be outbox or smtp' }).default('outbox'),
+  SMTP_URL: z.string().regex(/^smtps?:\/\//, { error: 'SMTP_URL must start with smtp:// or smtps://' }).optional(),
+  MAIL_FROM: z.string().min(3).max(254).default('Kinetwin <no-reply@kinetwin.invalid>'),
+  APP_BASE_URL: z.url({ protocol: /^https?$/, error: 'APP_BASE_URL must be an http:// or https:// address' }).optional(),
+  INVITATION_TTL_HOURS: z.coerce.number().positive().max(24 * 30).default(72),
+  PASSWORD_RESET_TTL_MINUTES: z.coerce.number().positive().max(24 * 60).default(60),
 });
 
 /** Parses the environment; on error returns one line naming each bad variable. */
@@ -41,6 +59,12 @@ export function readConfig(env: Record<string, string | undefined>): { ok: true;
   const e = parsed.value;
   if (e.KINETWIN_MODE === 'production' && !e.SESSION_SECRET) {
     return { ok: false, message: 'configuration: SESSION_SECRET is required when KINETWIN_MODE=production' };
+  }
+  if (e.KINETWIN_MODE === 'production' && !e.APP_BASE_URL) {
+    return { ok: false, message: 'configuration: APP_BASE_URL is required when KINETWIN_MODE=production (e-mailed links start with it)' };
+  }
+  if (e.MAIL_TRANSPORT === 'smtp') {
+    if (!e.SMTP_URL) return { ok: false, message: 'configuration: SMTP_URL is required when MAIL_TRANSPORT=smtp' };
   }
   return {
     ok: true,
@@ -54,8 +78,15 @@ export function readConfig(env: Record<string, string | undefined>): { ok: true;
       logLevel: e.LOG_LEVEL,
       signInLimit: e.SIGN_IN_LIMIT,
       signInWindowMinutes: e.SIGN_IN_WINDOW_MINUTES,
+      accountRequestLimit: e.ACCOUNT_REQUEST_LIMIT,
       maxLiveRuns: e.MAX_LIVE_RUNS,
       staticDir: e.STATIC_DIR,
+      mailTransport: e.MAIL_TRANSPORT,
+      smtpUrl: e.SMTP_URL ?? null,
+      mailFrom: e.MAIL_FROM,
+      appBaseUrl: new URL(e.APP_BASE_URL ?? `http://${e.HOST}:${e.PORT}`).origin,
+      invitationTtlHours: e.INVITATION_TTL_HOURS,
+      passwordResetTtlMinutes: e.PASSWORD_RESET_TTL_MINUTES,
     },
   };
 }

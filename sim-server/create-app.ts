@@ -11,27 +11,46 @@ import { Server as SocketServer } from 'socket.io';
 import type { AppInfo } from '../shared/protocol/api-types';
 import { RUN_NAMESPACE } from '../shared/protocol/run-events';
 import { authRoutes } from './auth/auth-routes';
+import { handshakeOriginAllowed, requireCsrfToken, requireSameOrigin } from './auth/csrf';
 import { createPassport } from './auth/passport-setup';
-import { requireUser } from './auth/require-user';
+import { passwordResetRoutes } from './auth/password-reset-routes';
+import { RouteTable, type RouteRecord } from './auth/route-table';
 import type { ServerConfig } from './config';
 import type { DatabaseHandle } from './db/database';
 import { DEMO_ACCOUNTS } from './db/seed-demo';
 import { appInfoRoute, healthRoutes } from './health/health-routes';
 import { apiNotFound, errorHandler } from './http/error-handler';
 import type { Logger } from './logging/logger';
+import { scenarioActivityRoutes, teamActivityRoutes } from './library/activity-routes';
+import { commentRoutes } from './library/comment-routes';
+import { handoffListRoutes, scenarioHandoffRoutes } from './library/handoff-routes';
+import type { LibraryDeps } from './library/library-deps';
+import { mailboxRoutes } from './mail/mailbox-routes';
+import { createMailer } from './mail/mailer';
+import { createMailTransport } from './mail/mail-transport';
 import { registerRunHandlers, type RunNamespace } from './runs/run-handlers';
+import { revisionRoutes } from './scenarios/revision-routes';
 import { scenarioRoutes } from './scenarios/scenario-routes';
+import { teamRoutes } from './team/team-routes';
 
 export interface KinetwinServer {
   http: Server;
   io: SocketServer;
   liveRuns(): number;
+  /** Every /api route with the access it requires (the role-matrix test walks these). */
+  routes: readonly RouteRecord[];
   /** Stops accepting connections, ends live runs and closes sockets; the database stays open. */
   close(): Promise<void>;
 }
 
 /** JSON bodies above this are refused with 413; a scenario file is a few kilobytes. */
 export const MAX_JSON_BODY = '256kb';
+
+/**
+ * Unsafe requests that need no CSRF token: the ones that start or end a session (sign-in has no
+ * session to take a token from yet; the app signs out without one). The Origin check covers them.
+ */
+export const CSRF_EXEMPT_PATHS = ['/auth/sign-in', '/auth/sign-up', '/auth/sign-out', '/auth/invitations/lookup', '/auth/password-reset/request', '/auth/password-reset/complete'];
 
 /** Builds Express and socket.io on one HTTP server. Listening is the caller's job. */
 export function createKinetwinServer(config: ServerConfig, database: DatabaseHandle, logger: Logger, version: string): KinetwinServer {
@@ -86,13 +105,41 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
     demoAccounts: config.mode === 'demo' ? DEMO_ACCOUNTS : [],
   };
 
+  const transport = createMailTransport(config.mailTransport, config.smtpUrl, database.db);
+  const deps: LibraryDeps = { db: database.db, mailer: createMailer(transport, config.mailFrom, logger), appBaseUrl: config.appBaseUrl };
+  const table = new RouteTable();
+  const mount = (path: string, ...groups: ((router: ReturnType<RouteTable['under']>) => void)[]) => {
+    const guarded = table.under(`/api${path}`);
+    for (const group of groups) group(guarded);
+    api.use(path, guarded.router);
+  };
+
   const api = express.Router();
   api.use(express.json({ limit: MAX_JSON_BODY }));
   api.use('/health', healthRoutes(database.pool, version));
   api.use('/app-info', appInfoRoute(info));
   api.use(sessionMiddleware, passport.initialize(), passport.session());
-  api.use('/auth', authRoutes({ passport, signInLimit: config.signInLimit, signInWindowMinutes: config.signInWindowMinutes }));
-  api.use('/scenarios', requireUser, scenarioRoutes(database.db));
+  api.use(requireSameOrigin(config.appBaseUrl), requireCsrfToken(CSRF_EXEMPT_PATHS));
+  const limits = { signInLimit: config.signInLimit, signInWindowMinutes: config.signInWindowMinutes, accountRequestLimit: config.accountRequestLimit };
+  mount('/auth', (r) => authRoutes(r, { passport, db: database.db, ...limits }));
+  mount('/auth/password-reset', (r) =>
+    passwordResetRoutes(r, { ...deps, ttlMinutes: config.passwordResetTtlMinutes, accountRequestLimit: config.accountRequestLimit, windowMinutes: config.signInWindowMinutes }),
+  );
+  mount(
+    '/scenarios',
+    (r) => scenarioRoutes(r, deps),
+    (r) => revisionRoutes(r, deps),
+    (r) => commentRoutes(r, deps),
+    (r) => scenarioHandoffRoutes(r, deps),
+    (r) => scenarioActivityRoutes(r, deps),
+  );
+  mount('/handoffs', (r) => handoffListRoutes(r, deps));
+  mount(
+    '/team',
+    (r) => teamRoutes(r, { ...deps, invitationTtlHours: config.invitationTtlHours }),
+    (r) => teamActivityRoutes(r, deps),
+  );
+  mount('/dev', (r) => mailboxRoutes(r, database.db));
   api.use(apiNotFound);
   app.use('/api', api);
 
@@ -107,7 +154,12 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
   app.use(errorHandler(logger));
 
   const http = createServer(app);
-  const io = new SocketServer(http, { serveClient: false, maxHttpBufferSize: 1e6, cors: { origin: false } });
+  const io = new SocketServer(http, {
+    serveClient: false,
+    maxHttpBufferSize: 1e6,
+    cors: { origin: false },
+    allowRequest: (req, callback) => callback(null, handshakeOriginAllowed(req.headers.origin, req.headers.host, config.appBaseUrl)),
+  });
   // Sockets share the cookie session; only the handshake needs it, later polling requests do not.
   const handshakeOnly = (middleware: RequestHandler) => (req: IncomingMessage, res: ServerResponse, next: (err?: unknown) => void) => {
     const isHandshake = (req as IncomingMessage & { _query?: Record<string, string> })._query?.sid === undefined;
@@ -122,6 +174,7 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
     http,
     io,
     liveRuns: runs.liveRuns,
+    routes: table.routes,
     close: () =>
       new Promise<void>((resolve) => {
         // io.close() disconnects every socket (ending its runs) and closes the HTTP server.

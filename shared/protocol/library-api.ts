@@ -62,7 +62,23 @@ const password = z
 /** Links carry 32 random bytes as base64url: 43 characters. */
 const token = z.string({ error: 'token must be text' }).regex(/^[A-Za-z0-9_-]{43}$/, { error: 'token is not a valid link token' });
 
-export const idSchema = z.coerce.number({ error: 'must be a whole number' }).int({ error: 'must be a whole number' }).positive({ error: 'must be positive' }).max(MAX_ID, { error: 'is too large' });
+/** An id in a JSON body: a number, never a string or a boolean that happens to convert. */
+export function idField(name: string) {
+  return z
+    .number({ error: `${name} must be a whole number` })
+    .int({ error: `${name} must be a whole number` })
+    .positive({ error: `${name} must be positive` })
+    .max(MAX_ID, { error: `${name} is too large` });
+}
+
+/** An id in a query string or path, where everything arrives as text. */
+export function queryIdField(name: string) {
+  return z.coerce
+    .number({ error: `${name} must be a whole number` })
+    .int({ error: `${name} must be a whole number` })
+    .positive({ error: `${name} must be positive` })
+    .max(MAX_ID, { error: `${name} is too large` });
+}
 
 export const roleSchema = z.enum(roles, { error: `role must be one of ${roles.join(', ')}` });
 
@@ -190,7 +206,7 @@ export const librarySorts = ['updatedAt', 'name', 'owner', 'status'] as const;
 export const libraryQuerySchema = z.strictObject({
   q: z.string({ error: 'q must be given once' }).trim().max(MAX_SEARCH_LENGTH, { error: `q must be at most ${MAX_SEARCH_LENGTH} characters` }).optional(),
   tag: tag.optional(),
-  owner: idSchema.optional(),
+  owner: queryIdField('owner').optional(),
   /** Default: every status except archived. */
   status: z.enum([...scenarioStatuses, 'all'], { error: `status must be one of ${scenarioStatuses.join(', ')} or all` }).optional(),
   sort: z.enum(librarySorts, { error: `sort must be one of ${librarySorts.join(', ')}` }).default('updatedAt'),
@@ -199,9 +215,9 @@ export const libraryQuerySchema = z.strictObject({
   pageSize: z.coerce.number({ error: 'pageSize must be a whole number' }).int({ error: 'pageSize must be a whole number' }).min(1, { error: 'pageSize must be at least 1' }).max(MAX_PAGE_SIZE, { error: `pageSize must be at most ${MAX_PAGE_SIZE}` }).default(DEFAULT_PAGE_SIZE),
 });
 export type LibraryQuery = z.input<typeof libraryQuerySchema>;
+/** A library query after validation, defaults filled in. */
+export type ParsedLibraryQuery = z.output<typeof libraryQuerySchema>;
 
-/** Revision numbers count from 1 per scenario. */
-export const revisionNumberSchema = idSchema;
 
 /**
  * The scenario document travels as plain JSON and is validated with parseScenario on the server
@@ -218,7 +234,7 @@ export type ScenarioCreateRequest = z.input<typeof scenarioCreateSchema>;
 export const scenarioSaveSchema = z.strictObject({
   scenario: z.unknown(),
   note: revisionNote,
-  baseRevision: revisionNumberSchema,
+  baseRevision: idField('baseRevision'),
 });
 export type ScenarioSaveRequest = z.input<typeof scenarioSaveSchema>;
 
@@ -243,26 +259,29 @@ export type ScenarioPatchRequest = z.input<typeof scenarioPatchSchema>;
 export const scenarioDuplicateSchema = z.strictObject({
   name: z.string({ error: 'name must be text' }).trim().min(1, { error: 'name must not be empty' }).max(MAX_NAME_LENGTH, { error: `name must be at most ${MAX_NAME_LENGTH} characters` }).optional(),
   /** Revision to copy; default the newest. */
-  revision: revisionNumberSchema.optional(),
+  revision: idField('revision').optional(),
 });
 export type ScenarioDuplicateRequest = z.input<typeof scenarioDuplicateSchema>;
 
 /** POST /api/scenarios/:id/revisions/:n/restore. */
-export const revisionRestoreSchema = z.strictObject({ note: revisionNote, baseRevision: revisionNumberSchema });
+export const revisionRestoreSchema = z.strictObject({ note: revisionNote, baseRevision: idField('baseRevision') });
 export type RevisionRestoreRequest = z.input<typeof revisionRestoreSchema>;
 
 /** GET /api/scenarios/:id/diff?from=&to=. */
-export const diffQuerySchema = z.strictObject({ from: revisionNumberSchema, to: revisionNumberSchema });
+export const diffQuerySchema = z.strictObject({ from: queryIdField('from'), to: queryIdField('to') });
 
 /** GET /api/scenarios/:id/export?revision=n (default the newest). */
-export const exportQuerySchema = z.strictObject({ revision: revisionNumberSchema.optional() });
+export const exportQuerySchema = z.strictObject({ revision: queryIdField('revision').optional() });
+
+/** GET /api/scenarios/:id/comments?revision=n (default every revision). */
+export const commentsQuerySchema = z.strictObject({ revision: queryIdField('revision').optional() });
 
 export const handoffAccesses = ['view', 'edit'] as const;
 export type HandoffAccess = (typeof handoffAccesses)[number];
 
 /** POST /api/scenarios/:id/handoffs. */
 export const handoffCreateSchema = z.strictObject({
-  toUserId: idSchema,
+  toUserId: idField('toUserId'),
   access: z.enum(handoffAccesses, { error: 'access must be view or edit' }),
   message: z.string({ error: 'message must be text' }).trim().max(MAX_HANDOFF_MESSAGE_LENGTH, { error: `message must be at most ${MAX_HANDOFF_MESSAGE_LENGTH} characters` }).default(''),
 });
@@ -271,7 +290,7 @@ export type HandoffCreateRequest = z.input<typeof handoffCreateSchema>;
 /** POST /api/scenarios/:id/revisions/:n/comments. Mentions are written "@email" in the body. */
 export const commentCreateSchema = z.strictObject({
   body: z.string({ error: 'body must be text' }).trim().min(1, { error: 'body must not be empty' }).max(MAX_COMMENT_LENGTH, { error: `body must be at most ${MAX_COMMENT_LENGTH} characters` }),
-  parentId: idSchema.optional(),
+  parentId: idField('parentId').optional(),
 });
 export type CommentCreateRequest = z.input<typeof commentCreateSchema>;
 

@@ -28,13 +28,23 @@ export function createPassport(db: Database): InstanceType<typeof Passport> {
         .catch(done);
     }),
   );
-  passport.serializeUser((user, done) => done(null, user.id));
-  passport.deserializeUser((id: unknown, done) => {
-    if (typeof id !== 'number') return done(null, false);
-    // A deleted account ends its sessions: false makes passport drop the user from the request.
-    findUserById(db, id)
-      .then((user) => done(null, user ?? false))
+  // The session keeps the id and the generation it was opened under; sign-out everywhere raises it.
+  passport.serializeUser((user, done) => done(null, { id: user.id, generation: user.sessionGeneration }));
+  passport.deserializeUser((stored: unknown, done) => {
+    const ref = sessionRef(stored);
+    if (!ref) return done(null, false);
+    // A removed account or an older generation ends the session: false drops the user from the request.
+    findUserById(db, ref.id)
+      .then((user) => done(null, user && user.sessionGeneration === ref.generation ? user : false))
       .catch(done);
   });
   return passport;
+}
+
+/** Sessions from before generations were stored hold a bare id: they count as generation 0. */
+function sessionRef(stored: unknown): { id: number; generation: number } | null {
+  if (typeof stored === 'number') return { id: stored, generation: 0 };
+  if (typeof stored !== 'object' || stored === null) return null;
+  const { id, generation } = stored as { id?: unknown; generation?: unknown };
+  return typeof id === 'number' && typeof generation === 'number' ? { id, generation } : null;
 }

@@ -1,4 +1,4 @@
-import { eq } from 'drizzle-orm';
+import { and, eq, isNull } from 'drizzle-orm';
 import { users } from '../../drizzle/schema';
 import type { SessionUser } from '../../shared/protocol/api-types';
 import type { Database } from '../db/database';
@@ -6,20 +6,27 @@ import type { Database } from '../db/database';
 /** A signed-in user as the server keeps it in the request (the API's SessionUser plus the team). */
 export interface AuthUser extends SessionUser {
   teamId: number;
+  /** Sessions carrying an older number are signed out (sign-out everywhere, password reset). */
+  sessionGeneration: number;
 }
 
-const columns = { id: users.id, teamId: users.teamId, email: users.email, displayName: users.displayName, role: users.role };
+const columns = { id: users.id, teamId: users.teamId, email: users.email, displayName: users.displayName, role: users.role, sessionGeneration: users.sessionGeneration };
 
+/** An active (not removed) user by id. */
 export async function findUserById(db: Database, id: number): Promise<AuthUser | null> {
-  const [row] = await db.select(columns).from(users).where(eq(users.id, id));
+  const [row] = await db
+    .select(columns)
+    .from(users)
+    .where(and(eq(users.id, id), isNull(users.deactivatedAt)));
   return row ?? null;
 }
 
+/** An active user by e-mail, with the password hash for sign-in. */
 export async function findUserWithHashByEmail(db: Database, email: string): Promise<(AuthUser & { passwordHash: string }) | null> {
   const [row] = await db
     .select({ ...columns, passwordHash: users.passwordHash })
     .from(users)
-    .where(eq(users.email, email.trim().toLowerCase()));
+    .where(and(eq(users.email, email.trim().toLowerCase()), isNull(users.deactivatedAt)));
   return row ?? null;
 }
 

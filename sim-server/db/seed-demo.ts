@@ -1,11 +1,12 @@
 import { readdir, readFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
-import { eq, sql } from 'drizzle-orm';
-import { scenarios, teams, users } from '../../drizzle/schema';
+import { and, desc, eq, sql } from 'drizzle-orm';
+import { scenarioRevisions, scenarios, teams, users } from '../../drizzle/schema';
 import type { Role } from '../../shared/protocol/api-types';
 import { parseScenarioText } from '../../shared/scenario/parse-scenario';
 import { describeFieldErrors } from '../../shared/validation/field-errors';
 import { hashPassword, verifyPassword } from '../auth/passwords';
+import { appendRevision, insertScenario, lockScenario } from '../scenarios/revision-store';
 import type { Database } from './database';
 
 export const DEMO_TEAM_NAME = 'Demo axis lab';
@@ -14,13 +15,19 @@ export const DEMO_TEAM_NAME = 'Demo axis lab';
 export const DEMO_ACCOUNTS: { email: string; password: string; role: Role; displayName: string }[] = [
   { email: 'rhea.engineer@demo.kinetwin.test', password: 'bench-demo-rhea', role: 'engineer', displayName: 'Rhea Okafor (demo engineer)' },
   { email: 'tomas.lead@demo.kinetwin.test', password: 'bench-demo-tomas', role: 'lead', displayName: 'Tomás Varga (demo lead)' },
+  { email: 'ines.admin@demo.kinetwin.test', password: 'bench-demo-ines', role: 'admin', displayName: 'Inès Moreau (demo admin)' },
+  { email: 'kofi.viewer@demo.kinetwin.test', password: 'bench-demo-kofi', role: 'viewer', displayName: 'Kofi Mensah (demo viewer)' },
 ];
+
+/** Note of the revisions the seed writes; a demo file is re-seeded only when it differs from the last one. */
+export const DEMO_SEED_NOTE = 'Demo scenario file';
 
 const scenariosFolder = fileURLToPath(new URL('../../scenarios', import.meta.url));
 
 /**
  * Seeds the demo team, users and the scenarios in scenarios/. Idempotent: users are matched by
- * e-mail and scenarios by file name, so a second run changes nothing unless the files changed.
+ * e-mail and scenarios by file name, so a second run changes nothing unless the files changed;
+ * a changed file becomes a new revision on top of whatever the team saved since.
  */
 export async function seedDemo(db: Database): Promise<{ users: number; scenarios: number }> {
   const files = (await readdir(scenariosFolder)).filter((f) => f.endsWith('.json')).sort();
@@ -60,15 +67,28 @@ export async function seedDemo(db: Database): Promise<{ users: number; scenarios
 
     const ownerId = ids[0]!;
     for (const { key, scenario } of documents) {
-      await tx
-        .insert(scenarios)
-        .values({ teamId: team.id, ownerId, name: scenario.name, document: scenario, demoKey: key })
-        .onConflictDoUpdate({
-          target: scenarios.demoKey,
-          set: { name: scenario.name, document: scenario, updatedAt: sql`now()` },
-          // Leave the row (and its updated time) alone when the file has not changed.
-          setWhere: sql`${scenarios.document} IS DISTINCT FROM excluded.document`,
-        });
+      const [existing] = await tx.select({ id: scenarios.id }).from(scenarios).where(eq(scenarios.demoKey, key));
+      if (!existing) {
+        const id = await insertScenario(tx, team.id, ownerId, scenario, DEMO_SEED_NOTE, ['demo']);
+        await tx.update(scenarios).set({ demoKey: key }).where(eq(scenarios.id, id));
+        continue;
+      }
+      const locked = await lockScenario(tx, team.id, existing.id);
+      if (!locked) continue; // a demo key moved to another team by hand: leave it alone
+      // Compared in the database: jsonb does not keep key order, so text comparison would not do.
+      const [last] = await tx
+        .select({ same: sql<boolean>`${scenarioRevisions.document} = ${JSON.stringify(scenario)}::jsonb` })
+        .from(scenarioRevisions)
+        .where(and(eq(scenarioRevisions.scenarioId, existing.id), eq(scenarioRevisions.note, DEMO_SEED_NOTE)))
+        .orderBy(desc(scenarioRevisions.number))
+        .limit(1);
+      const [headSame] = last
+        ? [last]
+        : await tx
+            .select({ same: sql<boolean>`${scenarios.document} = ${JSON.stringify(scenario)}::jsonb` })
+            .from(scenarios)
+            .where(eq(scenarios.id, existing.id));
+      if (!headSame?.same) await appendRevision(tx, existing.id, locked.headRevision, scenario, DEMO_SEED_NOTE, ownerId);
     }
     return { users: ids.length, scenarios: documents.length };
   });

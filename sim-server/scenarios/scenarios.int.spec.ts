@@ -39,7 +39,7 @@ describe('scenario library against the real database', () => {
     const { items } = await readJson(res);
     expect(items).toHaveLength(demoFiles.length);
     for (const item of items) {
-      expect(item).toEqual({ id: expect.any(Number), name: expect.any(String), ownerName: DEMO_ACCOUNTS[0]!.displayName, updatedAt: expect.any(String) });
+      expect(item).toMatchObject({ id: expect.any(Number), name: expect.any(String), ownerName: DEMO_ACCOUNTS[0]!.displayName, updatedAt: expect.any(String) });
       expect(Number.isNaN(Date.parse(item.updatedAt))).toBe(false);
     }
     expect(items.map((i: { name: string }) => i.name)).not.toContain('Other lab secret axis');

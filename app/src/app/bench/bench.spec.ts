@@ -42,7 +42,8 @@ const detail: ScenarioDetail = {
 };
 
 function frame(runId: string, t: number[], angle: number[]): RunFrame {
-  return { runId, t, angle, velocity: t.map(() => 0), controllerTorque: t.map(() => 0) };
+  const zeros = () => t.map(() => 0);
+  return { runId, t, angle, velocity: zeros(), controllerTorque: zeros(), appliedTorque: zeros(), saturating: zeros(), sticking: zeros() };
 }
 
 describe('Bench', () => {

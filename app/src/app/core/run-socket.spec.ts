@@ -12,7 +12,8 @@ class RunHost {
 }
 
 function frame(runId: string, t: number[], angle: number[]): RunFrame {
-  return { runId, t, angle, velocity: t.map(() => 0), controllerTorque: t.map(() => 0) };
+  const zeros = () => t.map(() => 0);
+  return { runId, t, angle, velocity: zeros(), controllerTorque: zeros(), appliedTorque: zeros(), saturating: zeros(), sticking: zeros() };
 }
 
 const started = (runId: string): Ack<RunStarted> => ({ status: 'ok', data: { runId, scenarioName: 'Demo arm', horizon: 2, dt: 0.002 } });
