@@ -1,16 +1,22 @@
 import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, afterNextRender, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import type { ChartFeed } from './chart-feed';
 import { joinBatches } from './chart-feed';
+import type { ClosedFormTrace } from './closed-form-view';
 
 type Plotly = typeof import('plotly.js-dist-min').default;
+type Data = Parameters<Plotly['react']>[1][number];
 
-/** Line colour of the angle trace: the theme's primary tone 40. */
+/** Line colour of the twin's angle trace: the theme's primary tone 40. */
 const TRACE_COLOR = '#146871';
+/** Line colour of the closed-form trace: the theme's tertiary (copper) tone 50. */
+const CLOSED_FORM_COLOR = '#b4621b';
 
 /**
- * Angle against time for one run, drawn with Plotly (imported on first use so it stays out of the
- * first page's bundle). New batches are appended with extendTraces; a new run redraws from empty.
- * The host's `data-samples` attribute counts the samples on the plot.
+ * Angle against time: the twin's run (trace 0, "twin") and the scenario's closed form (trace 1,
+ * dashed, "closed form"), drawn with Plotly (imported on first use so it stays out of the first
+ * page's bundle). New twin batches are appended with extendTraces; a new run, x range or closed
+ * form redraws everything. The host's `data-samples` attribute counts the twin samples on the
+ * plot, `data-closed-form-samples` the closed-form points.
  */
 @Component({
   selector: 'kt-angle-chart',
@@ -18,6 +24,7 @@ const TRACE_COLOR = '#146871';
   host: {
     'data-test': 'angle-chart',
     '[attr.data-samples]': 'samples()',
+    '[attr.data-closed-form-samples]': 'closedFormSamples()',
   },
   template: `
     <div #plot class="plot" role="img" aria-label="Joint angle in radians against time in seconds"></div>
@@ -31,10 +38,14 @@ export class AngleChart {
   /** Run length, s: the fixed x range. */
   readonly horizon = input.required<number>();
   readonly feed = input.required<ChartFeed>();
+  /** The closed-form angle over the horizon; null when there is none to draw. */
+  readonly closedForm = input<ClosedFormTrace | null>(null);
 
   private readonly plot = viewChild.required<ElementRef<HTMLDivElement>>('plot');
   private readonly drawnSamples = signal(0);
   protected readonly samples = this.drawnSamples.asReadonly();
+  private readonly drawnClosedFormSamples = signal(0);
+  protected readonly closedFormSamples = this.drawnClosedFormSamples.asReadonly();
   private readonly failureText = signal<string | null>(null);
   protected readonly failure = this.failureText.asReadonly();
 
@@ -44,6 +55,7 @@ export class AngleChart {
   private drawnRun = Number.NaN;
   private drawnHorizon = Number.NaN;
   private drawnBatches = 0;
+  private drawnClosedForm: ClosedFormTrace | null | undefined = undefined;
   /** Plot calls run one after another; a queued sync draws everything missing when it runs. */
   private queue: Promise<void> = Promise.resolve();
   private syncQueued = false;
@@ -62,6 +74,7 @@ export class AngleChart {
     effect(() => {
       this.feed();
       this.horizon();
+      this.closedForm();
       this.scheduleSync();
     });
 
@@ -90,27 +103,43 @@ export class AngleChart {
     const element = this.plot().nativeElement;
     const feed = untracked(this.feed);
     const horizon = untracked(this.horizon);
+    const closedForm = untracked(this.closedForm);
 
-    if (feed.run !== this.drawnRun || horizon !== this.drawnHorizon) {
+    if (feed.run !== this.drawnRun || horizon !== this.drawnHorizon || closedForm !== this.drawnClosedForm) {
       const all = joinBatches(feed.batches, 0, feed.size);
+      // The twin stays trace 0 so extendTraces below can append to it.
+      const traces: Data[] = [{ type: 'scatter', mode: 'lines', name: 'twin', x: all.t, y: all.angle, line: { color: TRACE_COLOR, width: 2 } }];
+      if (closedForm) {
+        traces.push({
+          type: 'scatter',
+          mode: 'lines',
+          name: 'closed form',
+          x: closedForm.t,
+          y: closedForm.angle,
+          line: { color: CLOSED_FORM_COLOR, width: 2, dash: 'dash' },
+        });
+      }
       await plotly.react(
         element,
-        [{ type: 'scatter', mode: 'lines', name: 'angle', x: all.t, y: all.angle, line: { color: TRACE_COLOR, width: 2 } }],
+        traces,
         {
-          margin: { l: 64, r: 16, t: 16, b: 48 },
+          margin: { l: 64, r: 16, t: 32, b: 48 },
           xaxis: { title: { text: 'time (s)' }, range: [0, horizon], autorange: false, zeroline: false },
           yaxis: { title: { text: 'angle (rad)' }, autorange: true },
           paper_bgcolor: 'rgba(0,0,0,0)',
           plot_bgcolor: 'rgba(0,0,0,0)',
           font: { family: 'Roboto, system-ui, sans-serif' },
-          showlegend: false,
+          showlegend: true,
+          legend: { orientation: 'h', x: 0, y: 1.02, yanchor: 'bottom' },
         },
         { responsive: true, displaylogo: false },
       );
       this.drawnRun = feed.run;
       this.drawnHorizon = horizon;
       this.drawnBatches = feed.size;
+      this.drawnClosedForm = closedForm;
       this.drawnSamples.set(all.t.length);
+      this.drawnClosedFormSamples.set(closedForm ? closedForm.t.length : 0);
       return;
     }
 

@@ -4,20 +4,23 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { type ComponentFixture, DeferBlockBehavior, TestBed } from '@angular/core/testing';
 import { By } from '@angular/platform-browser';
 import { provideRouter } from '@angular/router';
+import { responseAt, solveClosedForm } from '@kinetwin/shared/closed-form/index';
 import type { ScenarioDetail } from '@kinetwin/shared/protocol/api-types';
 import type { RunFrame } from '@kinetwin/shared/protocol/run-events';
 import { RUN_SOCKET_FACTORY, type RunSocketClient } from '../core/run-socket-factory';
 import { FakeRunSocketClient } from '../core/testing/fake-run-socket-client';
 import { AngleChart } from './angle-chart';
-import { Bench } from './bench';
+import { Bench, CLOSED_FORM_DEBOUNCE_MS } from './bench';
 import type { ChartFeed } from './chart-feed';
 import { joinBatches } from './chart-feed';
+import { CLOSED_FORM_TRACE_INTERVALS, type ClosedFormTrace } from './closed-form-view';
 
 /** Takes the chart's place: Plotly does not run under jsdom, and what the bench feeds it is the point. */
 @Component({ selector: 'kt-angle-chart', template: '' })
 class RecordingChart {
   readonly horizon = input.required<number>();
   readonly feed = input.required<ChartFeed>();
+  readonly closedForm = input<ClosedFormTrace | null>(null);
 }
 
 // Invented demo values.
@@ -54,10 +57,31 @@ describe('Bench', () => {
 
   const text = (selector: string) => page.querySelector(selector)?.textContent?.trim() ?? null;
   const button = (name: string) => page.querySelector<HTMLButtonElement>(`[data-test=${name}]`)!;
-  const chartFeed = () => fixture.debugElement.query(By.directive(RecordingChart)).componentInstance.feed() as ChartFeed;
+  const chart = () => fixture.debugElement.query(By.directive(RecordingChart)).componentInstance as RecordingChart;
+  const chartFeed = () => chart().feed();
+  const field = (name: string) => page.querySelector<HTMLInputElement>(`input[name="${name}"]`)!;
   async function settle(): Promise<void> {
     await new Promise((resolve) => setTimeout(resolve));
     await fixture.whenStable();
+  }
+  /** Waits out the closed form's debounce (and the engine's first load). */
+  async function settleClosedForm(): Promise<void> {
+    for (let i = 0; i < 50; i++) {
+      await new Promise((resolve) => setTimeout(resolve, CLOSED_FORM_DEBOUNCE_MS + 20));
+      await fixture.whenStable();
+      if (!page.textContent?.includes('Loading the closed-form engine')) return;
+    }
+  }
+  async function type(name: string, text: string): Promise<void> {
+    field(name).value = text;
+    field(name).dispatchEvent(new Event('input'));
+    await fixture.whenStable();
+  }
+  async function finishRun(runId: string): Promise<void> {
+    client.last('run:start').ack({ status: 'ok', data: { runId, scenarioName: 'Demo wrist pitch', horizon: 2, dt: 0.002 } });
+    await settle();
+    client.receive('run:end', { runId, reason: 'finished', message: 'horizon reached', simulatedTime: 2 });
+    await settle();
   }
 
   beforeEach(async () => {
@@ -151,5 +175,80 @@ describe('Bench', () => {
     await fixture.whenStable();
     expect(text('[data-test=bench-error]')).toBe('No scenario has id 5.');
     expect(page.querySelector('[data-test=run]')).toBeNull();
+  });
+
+  it('draws the closed form of the scenario over the chart and in the panel', async () => {
+    http.expectOne('/api/scenarios/5').flush(detail);
+    await settleClosedForm();
+    expect(chart().closedForm()?.t.length).toBe(CLOSED_FORM_TRACE_INTERVALS + 1);
+    expect(chart().closedForm()?.angle[0]).toBeCloseTo(0.1, 12);
+    // Type 1 loop (no spring, integrating joint): the 0.5 rad step settles at 0.5 rad.
+    expect(text('[data-test=final-value]')).toBe('0.5 rad');
+    expect(page.querySelector('[data-test=closed-form-panel] [data-test=metrics]')).not.toBeNull();
+  });
+
+  it('runs the edited scenario inline and the stored one by id', async () => {
+    http.expectOne('/api/scenarios/5').flush(detail);
+    await fixture.whenStable();
+
+    await type('controller.kp', '3');
+    button('run').click();
+    await fixture.whenStable();
+    const inline = client.last('run:start').payload as { scenario: { controller: { kp: number } }; scenarioId?: number };
+    expect(inline.scenarioId).toBeUndefined();
+    expect(inline.scenario.controller.kp).toBe(3);
+    await finishRun('r1');
+
+    // Typing the saved value back leaves nothing edited in substance: the stored scenario runs.
+    await type('controller.kp', '2.0');
+    button('run').click();
+    await fixture.whenStable();
+    expect(client.last('run:start').payload).toEqual({ scenarioId: 5 });
+  });
+
+  it('shows an invalid edit under its field, keeps the panel up, refuses to run and resets to saved', async () => {
+    http.expectOne('/api/scenarios/5').flush(detail);
+    await settleClosedForm();
+
+    await type('joint.inertia', '-1');
+    await settleClosedForm();
+    expect(text('[data-test="field-error-joint.inertia"]')).toBe('inertia must be positive');
+    expect(text('[data-test=closed-form-errors]')?.replace(/\s+/g, ' ')).toContain('joint.inertia: inertia must be positive');
+    expect(chart().closedForm()).toBeNull();
+    expect(button('run').disabled).toBe(true);
+
+    await type('joint.inertia', 'heavy');
+    await settleClosedForm();
+    expect(text('[data-test="field-error-joint.inertia"]')).toBe('inertia must be a finite number, got "heavy"');
+
+    button('reset-edits').click();
+    await settleClosedForm();
+    expect(field('joint.inertia').value).toBe('0.01');
+    expect(page.querySelector('[data-test="field-error-joint.inertia"]')).toBeNull();
+    expect(text('[data-test=final-value]')).toBe('0.5 rad');
+    expect(button('run').disabled).toBe(false);
+  });
+
+  it('reads the largest twin − closed form residual after a run', async () => {
+    http.expectOne('/api/scenarios/5').flush(detail);
+    await settleClosedForm();
+    expect(page.querySelector('[data-test=residual]')).toBeNull();
+    button('run').click();
+    client.last('run:start').ack({ status: 'ok', data: { runId: 'r1', scenarioName: 'Demo wrist pitch', horizon: 2, dt: 0.002 } });
+    await settle();
+
+    const solved = solveClosedForm(detail.scenario);
+    if (!solved.ok) throw new Error('the demo scenario has no closed form');
+    const t = Array.from({ length: 501 }, (_, i) => i * 0.002);
+    // The twin as the closed form, but 2 mrad off at t = 0.5 s.
+    const angle = t.map((x, i) => responseAt(solved.value.plan, x, 0) + (i === 250 ? 0.002 : 0));
+    client.receive('run:frame', frame('r1', t.slice(0, 300), angle.slice(0, 300)));
+    client.receive('run:frame', frame('r1', t.slice(300), angle.slice(300)));
+    client.receive('run:end', { runId: 'r1', reason: 'stopped', message: 'stopped by the user', simulatedTime: 1 });
+    await settle();
+    await settle();
+
+    expect(text('[data-test=residual]')).toContain('Last run: max |twin − closed form| = 0.002 rad at t = 0.5 s');
+    expect(text('[data-test=residual]')).toContain('501 twin samples');
   });
 });

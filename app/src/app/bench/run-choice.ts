@@ -1,0 +1,31 @@
+import type { RunStartRequest } from '@kinetwin/shared/protocol/run-events';
+import { parseScenario } from '@kinetwin/shared/scenario/parse-scenario';
+import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
+import type { FieldError } from '@kinetwin/shared/validation/field-errors';
+import { type ScenarioEdits, editedScenario, samePlainData } from './scenario-draft';
+
+/** The run request the bench sends, or the edits' errors when they cannot be run. */
+export type RunChoice =
+  | {
+      ok: true;
+      request: RunStartRequest;
+      /** The scenario that will run: the stored one, or the edited one when it goes inline. */
+      scenario: Scenario;
+      inline: boolean;
+    }
+  | { ok: false; errors: FieldError[] };
+
+/**
+ * Runs the stored scenario by id unless the edits change it; then the edited scenario goes
+ * inline, for the server to validate again. Edits that only retype a saved value (0.010 for
+ * 0.01) change nothing, so the stored scenario runs.
+ * @example runChoice(5, saved, {}) // { ok: true, request: { scenarioId: 5 }, scenario: saved, inline: false }
+ */
+export function runChoice(scenarioId: number, saved: Scenario, edits: ScenarioEdits): RunChoice {
+  if (Object.keys(edits).length === 0) return { ok: true, request: { scenarioId }, scenario: saved, inline: false };
+  const edited = editedScenario(saved, edits);
+  if (!edited.ok) return edited;
+  const stored = parseScenario(saved);
+  if (stored.ok && samePlainData(stored.value, edited.value)) return { ok: true, request: { scenarioId }, scenario: saved, inline: false };
+  return { ok: true, request: { scenario: edited.value }, scenario: edited.value, inline: true };
+}
