@@ -1,22 +1,10 @@
 import { describe, expect, it } from 'vitest';
-import { parseScenario } from '../scenario/parse-scenario';
 import type { Scenario, ScenarioInput } from '../scenario/scenario-schema';
+import { buildScenario } from './testing/build-scenario';
 import { createTwinRun, simulateTwin } from './twin-run';
 
-function scenario(patch: Partial<ScenarioInput>): Scenario {
-  const parsed = parseScenario({
-    kind: 'kinetwin/scenario',
-    version: 1,
-    name: 'twin test',
-    joint: { inertia: 0.05, damping: 0.02, stiffness: 0 },
-    controller: { mode: 'pid', kp: 8, kd: 0.6, derivativeOn: 'measurement' },
-    inputs: [{ channel: 'reference', shape: 'step', amplitude: 0.5 }],
-    horizon: 3,
-    ...patch,
-  });
-  if (!parsed.ok) throw new Error(JSON.stringify(parsed.errors));
-  return parsed.value;
-}
+// The shared test joint, with a 3 s horizon unless a test sets its own.
+const scenario = (patch: Partial<ScenarioInput>): Scenario => buildScenario({ horizon: 3, ...patch });
 
 const maxAbs = (a: ArrayLike<number>) => Array.from(a).reduce((m, v) => Math.max(m, Math.abs(v)), 0);
 

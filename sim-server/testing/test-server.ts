@@ -43,15 +43,7 @@ export async function startTestServer(overrides: Record<string, string> = {}): P
 
 /** Signs in through the real route and returns the session cookie ("name=value"). */
 export async function signIn(baseUrl: string, email: string, password: string): Promise<string> {
-  const res = await fetch(`${baseUrl}/api/auth/sign-in`, {
-    method: 'POST',
-    headers: { 'content-type': 'application/json' },
-    body: JSON.stringify({ email, password }),
-  });
-  if (res.status !== 200) throw new Error(`sign-in as ${email} answered ${res.status}: ${await res.text()}`);
-  const cookie = res.headers.getSetCookie().find((c) => c.startsWith('kinetwin.sid='));
-  if (!cookie) throw new Error('sign-in set no session cookie');
-  return cookie.split(';')[0]!;
+  return (await signInSession(baseUrl, email, password)).cookie;
 }
 
 /** A response body as JSON, typed loosely: the assertions that follow check its shape. */
