@@ -90,12 +90,41 @@ describe('bench in Chromium', () => {
     expect(angle).toBeLessThan(0.6);
     await expect.poll(() => page.locator('[data-test=angle-chart] .plot-container').count()).toBe(1);
 
+    // The closed form of the same scenario sits beside the twin and agrees with it.
+    await expect.poll(() => page.locator('[data-test=closed-form-latex] .katex').count()).toBeGreaterThan(0);
+    expect(await page.locator('[data-test=final-value]').textContent()).toMatch(/0\.5/);
+    expect(Number(await page.locator('[data-test=angle-chart]').getAttribute('data-closed-form-samples'))).toBeGreaterThan(100);
+    const residual = (await page.locator('[data-test=residual]').textContent()) ?? '';
+    const maxResidual = Number(/=\s*([-+0-9.eE]+)/.exec(residual)?.[1]);
+    // With every effect off the twin is the linear model: agreement to integration error.
+    expect(maxResidual).toBeLessThan(1e-6);
+
     const view = await canvasCoverage(page);
     expect(view.width).toBeGreaterThan(100);
     expect(view.colours).toBeGreaterThan(8);
     expect(view.covered).toBeGreaterThan(0.02);
     await page.screenshot({ path: `${ARTIFACTS}/bench-after-run.png`, fullPage: true });
     expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it('reruns an edited gain inline and redraws the closed form', async () => {
+    const page = await browser.context.newPage();
+    await signInAsEngineer(page);
+    await page.locator('[data-test=scenario-row]', { hasText: 'Wrist pitch' }).locator('a[data-test=open-scenario]').click();
+    await expect.poll(() => page.locator('[data-test=metric-overshootPercent]').textContent()).toMatch(/\d/);
+    const before = await page.locator('[data-test=metric-overshootPercent]').textContent();
+    // Less derivative gain: a more lightly damped loop, so more overshoot.
+    await page.fill('input[name="controller.kd"]', '0.15');
+    await expect.poll(() => page.locator('[data-test=metric-overshootPercent]').textContent()).not.toBe(before);
+    await page.fill('input[name="joint.inertia"]', '-1');
+    await expect.poll(() => page.locator('[data-test=run]').isEnabled()).toBe(false);
+    await page.fill('input[name="joint.inertia"]', '0.012');
+    await page.locator('[data-test=joint-view] canvas').waitFor({ timeout: 20_000 });
+    await page.click('[data-test=run]');
+    await expect.poll(() => page.locator('[data-test=run-status]').textContent(), { timeout: 20_000 }).toMatch(/finished/i);
+    expect(await page.locator('[data-test=residual]').textContent()).toContain('edited scenario');
+    await page.screenshot({ path: `${ARTIFACTS}/bench-edited-gain.png`, fullPage: true });
     await page.close();
   });
 
