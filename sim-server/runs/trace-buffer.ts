@@ -86,7 +86,8 @@ export function sampleAt(s: TwinTrace, i: number): RunSample {
 
 /**
  * The samples a live run has sent, kept for scrubbing: at most `capacity`, the oldest dropped
- * first. Appends copy into chunks, so the twin's own arrays are not held.
+ * first. Chunks are kept as given (views on the twin's output, which nothing writes again), so a
+ * live tick costs no copy.
  */
 export class TraceHistory {
   private chunks: TwinTrace[] = [];
@@ -96,7 +97,7 @@ export class TraceHistory {
 
   append(s: TwinTrace): void {
     if (s.t.length === 0) return;
-    this.chunks.push(cloneTrace(s));
+    this.chunks.push(s);
     this.size += s.t.length;
     while (this.size - this.chunks[0]!.t.length >= this.capacity) {
       this.size -= this.chunks.shift()!.t.length;
@@ -127,16 +128,4 @@ export class TraceHistory {
     }
     return best;
   }
-}
-
-function cloneTrace(s: TwinTrace): TwinTrace {
-  return {
-    t: s.t.slice(),
-    angle: s.angle.slice(),
-    velocity: s.velocity.slice(),
-    controllerTorque: s.controllerTorque.slice(),
-    appliedTorque: s.appliedTorque.slice(),
-    saturating: s.saturating.slice(),
-    sticking: s.sticking.slice(),
-  };
 }
