@@ -24,7 +24,8 @@ describe('kicks: forcing terms added to a live run', () => {
   });
 
   it('refuses a kick in the past, on a finished run, of the wrong channel or with bad numbers', () => {
-    const run = createTwinRun(base, { dt: 0.01 });
+    // Stretches of 0.25 s: advancing to 0.5 s ends exactly there.
+    const run = createTwinRun(base, { dt: 0.01, maxChunk: 0.25 });
     run.advance(0.5);
     const past = run.kick({ channel: 'torque', shape: 'step', amplitude: 1, delay: 0.2 });
     expect(past).toEqual({ ok: false, errors: [{ field: 'delay', message: expect.stringMatching(/cannot start at t = 0.2 s: the run is already at t = 0.5/) }] });

@@ -16,8 +16,12 @@ export const TWIN_DEFAULTS: TwinSettings = {
   /** odex relative and absolute tolerances. */
   relativeTolerance: 1e-10,
   absoluteTolerance: 1e-10,
-  /** Longest stretch integrated in one odex call, s; also the streaming granularity. */
-  maxChunk: 0.25,
+  /**
+   * Longest stretch integrated in one odex call, s. Each restart costs odex its start-up work
+   * (measured: a 10 s run takes 4.6 ms with 0.25 s stretches, 3.5 ms with 1 s); live runs pass a
+   * short one so a kick lands close to what is on screen.
+   */
+  maxChunk: 1,
   /** A run stops when |angle| exceeds this, rad (a runaway joint, not a real move). */
   angleBound: 1e6,
   /** A run stops when |velocity| exceeds this, rad/s. */
