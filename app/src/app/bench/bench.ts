@@ -3,8 +3,8 @@ import { takeUntilDestroyed, toObservable, toSignal } from '@angular/core/rxjs-i
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
 import { Title } from '@angular/platform-browser';
-import { RouterLink } from '@angular/router';
-import type { ScenarioDetail } from '@kinetwin/shared/protocol/api-types';
+import { Router, RouterLink } from '@angular/router';
+import type { LibraryDetail } from '@kinetwin/shared/protocol/library-api';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { FieldError } from '@kinetwin/shared/validation/field-errors';
 import { catchError, debounceTime, map, of, startWith, switchMap } from 'rxjs';
@@ -21,6 +21,7 @@ import { type ClosedFormView, closedFormView } from './closed-form-view';
 import { JointView } from './joint-view';
 import { type ResidualPeak, largestResidual } from './residual';
 import { runChoice } from './run-choice';
+import { SaveRevisionPanel } from './save-revision-panel';
 import { type RunStatus, isRunActive, runStatusText, statusOfRunEnd } from './run-status';
 import { type ScenarioEdits, editedScenario } from './scenario-draft';
 import { describeInputTerm, formatQuantity, scenarioFacts } from './scenario-facts';
@@ -47,7 +48,7 @@ const LINK_TEXT: Record<RunLink, string> = {
   selector: 'kt-bench',
   changeDetection: ChangeDetectionStrategy.OnPush,
   providers: [RunSocket],
-  imports: [AngleChart, ClosedFormPanel, JointView, MatButtonModule, MatIconModule, RouterLink, TuningForm],
+  imports: [AngleChart, ClosedFormPanel, JointView, MatButtonModule, MatIconModule, RouterLink, SaveRevisionPanel, TuningForm],
   templateUrl: './bench.html',
   styleUrl: './bench.css',
 })
@@ -55,6 +56,7 @@ export class Bench {
   private readonly scenarios = inject(ScenarioApi);
   private readonly runs = inject(RunSocket);
   private readonly title = inject(Title);
+  private readonly router = inject(Router);
 
   /** Scenario id from the route (`/bench/:id`). */
   readonly id = input.required<string>();
@@ -63,13 +65,13 @@ export class Bench {
     toObservable(this.id).pipe(
       switchMap((id) =>
         this.scenarios.get(id).pipe(
-          map((value): LoadState<ScenarioDetail> => ({ status: 'ready', value })),
-          catchError((failure: unknown) => of<LoadState<ScenarioDetail>>({ status: 'failed', message: apiErrorMessage(failure) })),
-          startWith<LoadState<ScenarioDetail>>({ status: 'loading' }),
+          map((value): LoadState<LibraryDetail> => ({ status: 'ready', value })),
+          catchError((failure: unknown) => of<LoadState<LibraryDetail>>({ status: 'failed', message: apiErrorMessage(failure) })),
+          startWith<LoadState<LibraryDetail>>({ status: 'loading' }),
         ),
       ),
     ),
-    { initialValue: { status: 'loading' } as LoadState<ScenarioDetail> },
+    { initialValue: { status: 'loading' } as LoadState<LibraryDetail> },
   );
   protected readonly link = toSignal(this.runs.link$, { initialValue: 'connecting' as RunLink });
 
@@ -88,7 +90,11 @@ export class Bench {
   private readonly residualState = signal<ResidualState>({ kind: 'none' });
   protected readonly residual = this.residualState.asReadonly();
 
+  /** A newer revision the save panel brought in (after a save, or theirs after a conflict). */
+  private readonly replacedDetail = signal<LibraryDetail | null>(null);
   protected readonly scenario = computed(() => {
+    const replaced = this.replacedDetail();
+    if (replaced) return replaced;
     const state = this.detail();
     return state.status === 'ready' ? state.value : null;
   });
@@ -97,10 +103,11 @@ export class Bench {
     return state.status === 'failed' ? state.message : '';
   });
   /** The stored scenario with the edits applied and validated; null before it loads. */
-  private readonly edited = computed(() => {
+  protected readonly edited = computed(() => {
     const detail = this.scenario();
     return detail ? editedScenario(detail.scenario, this.scenarioEdits()) : null;
   });
+  protected readonly hasEdits = computed(() => Object.keys(this.scenarioEdits()).length > 0);
   protected readonly editErrors = computed(() => {
     const edited = this.edited();
     return edited && !edited.ok ? edited.errors : [];
@@ -155,6 +162,12 @@ export class Bench {
       (failure: unknown) => this.engineFailure.set(`The closed-form engine could not be loaded (${failure instanceof Error ? failure.message : String(failure)}). Reload the page to try again.`),
     );
 
+    // Another scenario id drops a revision the save panel brought in for the previous one.
+    effect(() => {
+      this.id();
+      untracked(() => this.replacedDetail.set(null));
+    });
+
     // Another scenario (or a reload of this one) starts with no edits.
     effect(() => {
       this.scenario();
@@ -179,6 +192,17 @@ export class Bench {
   /** Records one field's text; validation and the closed form follow from the edits signal. */
   protected editField(edit: FieldEdit): void {
     this.scenarioEdits.update((edits) => ({ ...edits, [edit.path]: edit.text }));
+  }
+
+  /** Shows a newer revision of the same scenario; its effect on `scenario()` clears the edits. */
+  protected showRevision(detail: LibraryDetail): void {
+    this.replacedDetail.set(detail);
+  }
+
+  /** The edit went into a new scenario: open that one on the bench. */
+  protected async openCopy(detail: LibraryDetail): Promise<void> {
+    this.replacedDetail.set(null);
+    await this.router.navigate(['/bench', detail.id]);
   }
 
   protected resetEdits(): void {

@@ -1,6 +1,7 @@
 import { HttpClient } from '@angular/common/http';
 import { Injectable, inject } from '@angular/core';
-import type { ScenarioDetail, ScenarioSummary } from '@kinetwin/shared/protocol/api-types';
+import type { ScenarioSummary } from '@kinetwin/shared/protocol/api-types';
+import type { LibraryDetail } from '@kinetwin/shared/protocol/library-api';
 import { type Observable, map } from 'rxjs';
 
 interface ScenarioList {
@@ -16,8 +17,8 @@ export class ScenarioApi {
     return this.http.get<ScenarioList>('/api/scenarios').pipe(map((body) => body.items));
   }
 
-  /** The id comes from the address bar as text; the server answers 400 to a malformed one. */
-  get(id: string): Observable<ScenarioDetail> {
-    return this.http.get<ScenarioDetail>(`/api/scenarios/${encodeURIComponent(id)}`);
+  /** The scenario with its newest revision, status and what the user may do. The id comes from the address bar as text; the server answers 400 to a malformed one. */
+  get(id: string): Observable<LibraryDetail> {
+    return this.http.get<LibraryDetail>(`/api/scenarios/${encodeURIComponent(id)}`);
   }
 }

@@ -1,0 +1,38 @@
+import type { ScenarioChange } from '@kinetwin/shared/library/scenario-diff';
+import { diffSectionRows, formatDiffValue } from './diff-rows';
+
+describe('diffSectionRows', () => {
+  const changes: ScenarioChange[] = [
+    { section: 'inputs', path: 'inputs.1.amplitude', kind: 'changed', before: -1, after: -2 },
+    { section: 'controller', path: 'controller.kp', kind: 'changed', before: 4, after: 6.5 },
+    { section: 'inputs', path: 'inputs.2.delay', kind: 'added', before: null, after: 0.4 },
+    { section: 'name', path: 'name', kind: 'changed', before: 'Gantry', after: 'Gantry tuned' },
+    { section: 'limits', path: 'limits.settlingTime', kind: 'changed', before: null, after: 1.2 },
+  ];
+
+  it('groups changes by section in reading order, leaving out sections without changes', () => {
+    expect(diffSectionRows(changes).map((group) => group.label)).toEqual(['Name', 'Controller', 'Forcing terms', 'Limits']);
+  });
+
+  it('labels parameters inside their section, numbering forcing terms from 1, with their SI unit', () => {
+    const rows = diffSectionRows(changes).flatMap((group) => group.rows);
+    expect(rows.map((row) => [row.label, row.before, row.after, row.unit, row.kind])).toEqual([
+      ['Name', '“Gantry”', '“Gantry tuned”', '', 'changed'],
+      ['kp', '4', '6.5', 'N·m/rad', 'changed'],
+      ['term 2 · amplitude', '-1', '-2', '', 'changed'],
+      ['term 3 · delay', '—', '0.4', 's', 'added'],
+      ['settlingTime', '—', '1.2', 's', 'changed'],
+    ]);
+  });
+
+  it('shows numbers exactly as stored, so a tiny change is never rounded away', () => {
+    expect(formatDiffValue(0.1 + 0.2)).toBe('0.30000000000000004');
+    expect(formatDiffValue(1e-12)).toBe('1e-12');
+    expect(formatDiffValue('')).toBe('“”');
+    expect(formatDiffValue(false)).toBe('false');
+  });
+
+  it('gives no sections for two identical revisions', () => {
+    expect(diffSectionRows([])).toEqual([]);
+  });
+});

@@ -1,0 +1,186 @@
+import { ChangeDetectionStrategy, Component, computed, effect, inject, input, output, signal, untracked } from '@angular/core';
+import { MatButtonModule } from '@angular/material/button';
+import { MatFormFieldModule } from '@angular/material/form-field';
+import { MatIconModule } from '@angular/material/icon';
+import { MatInputModule } from '@angular/material/input';
+import { type LibraryDetail, MAX_REVISION_NOTE_LENGTH, type StaleSaveBody } from '@kinetwin/shared/protocol/library-api';
+import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
+import type { FieldError } from '@kinetwin/shared/validation/field-errors';
+import { firstValueFrom } from 'rxjs';
+import { apiErrorMessage, apiFieldErrors } from '../core/api-error-message';
+import { LibraryApi } from '../core/library-api';
+import { EDITABLE_PARAMETERS, type ParameterEdits, applyParameterEdits, effectiveEdits, parameterValue } from './parameter-edits';
+import { copyName, staleSaveOf } from './stale-save';
+
+/** The revision an edit starts from: its number (sent as baseRevision) and its document. */
+interface EditBase {
+  revision: number;
+  scenario: Scenario;
+}
+
+/**
+ * Edits the newest revision's parameters and saves them as a new revision. A save that started
+ * from an older revision comes back 409 with both versions; then the editor offers to save the
+ * edit as a copy, to keep the edit on top of the newer revision, or to drop it and load theirs.
+ */
+@Component({
+  selector: 'kt-revision-editor',
+  changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  templateUrl: './revision-editor.html',
+  styleUrl: './revision-editor.css',
+})
+export class RevisionEditor {
+  private readonly library = inject(LibraryApi);
+
+  /** The scenario as the server last sent it; a new value (after a save or reload) restarts the edit. */
+  readonly detail = input.required<LibraryDetail>();
+  /** A new revision was saved. */
+  readonly saved = output<LibraryDetail>();
+  /** The edit was saved as a new scenario instead. */
+  readonly copied = output<LibraryDetail>();
+  /** The user dropped the edit to see the newer revision: the page should load it. */
+  readonly reloadRequested = output<void>();
+
+  protected readonly parameters = EDITABLE_PARAMETERS;
+  protected readonly maxNote = MAX_REVISION_NOTE_LENGTH;
+
+  private readonly editBase = signal<EditBase | null>(null);
+  private readonly editTexts = signal<ParameterEdits>({});
+  protected readonly edits = this.editTexts.asReadonly();
+  private readonly noteText = signal('');
+  protected readonly note = this.noteText.asReadonly();
+  private readonly busy = signal(false);
+  protected readonly saving = this.busy.asReadonly();
+  private readonly failureText = signal<string | null>(null);
+  protected readonly failure = this.failureText.asReadonly();
+  private readonly serverErrors = signal<FieldError[]>([]);
+  private readonly staleBody = signal<StaleSaveBody | null>(null);
+  protected readonly stale = this.staleBody.asReadonly();
+  private readonly doneText = signal<string | null>(null);
+  protected readonly done = this.doneText.asReadonly();
+
+  protected readonly base = this.editBase.asReadonly();
+  private readonly pending = computed(() => {
+    const base = this.editBase();
+    return base ? effectiveEdits(base.scenario, this.editTexts()) : {};
+  });
+  protected readonly changed = computed(() => Object.keys(this.pending()).length > 0);
+  private readonly result = computed(() => {
+    const base = this.editBase();
+    return base ? applyParameterEdits(base.scenario, this.pending()) : null;
+  });
+  protected readonly errors = computed((): FieldError[] => {
+    const result = this.result();
+    return [...(result && !result.ok ? result.errors : []), ...this.serverErrors()];
+  });
+  protected readonly canSave = computed(() => this.changed() && this.result()?.ok === true && !this.saving() && this.staleBody() === null);
+
+  /** Set by "keep my edit on theirs": the next detail only moves the base, the edits stay. */
+  private keepEditsOnNextDetail = false;
+
+  constructor() {
+    effect(() => {
+      const detail = this.detail();
+      untracked(() => {
+        this.editBase.set({ revision: detail.revision, scenario: detail.scenario });
+        if (this.keepEditsOnNextDetail) {
+          this.keepEditsOnNextDetail = false;
+          return;
+        }
+        this.editTexts.set({});
+        this.noteText.set('');
+        this.staleBody.set(null);
+      });
+    });
+  }
+
+  protected text(path: string): string {
+    const edit = this.editTexts()[path];
+    if (edit !== undefined) return edit;
+    const base = this.editBase();
+    const value = base ? parameterValue(base.scenario, path) : undefined;
+    return value === undefined ? '' : String(value);
+  }
+
+  protected errorOf(path: string): string | null {
+    return this.errors().find((error) => error.field === path || error.field === `scenario.${path}`)?.message ?? null;
+  }
+
+  protected edit(path: string, text: string): void {
+    this.editTexts.update((edits) => ({ ...edits, [path]: text }));
+    this.serverErrors.set([]);
+    this.doneText.set(null);
+  }
+
+  protected setNote(text: string): void {
+    this.noteText.set(text);
+  }
+
+  protected discardEdits(): void {
+    this.editTexts.set({});
+    this.serverErrors.set([]);
+    this.failureText.set(null);
+  }
+
+  protected async saveRevision(): Promise<void> {
+    const base = this.editBase();
+    const result = this.result();
+    if (!base || !result?.ok || !this.canSave()) return;
+    this.busy.set(true);
+    this.failureText.set(null);
+    this.doneText.set(null);
+    try {
+      const detail = await firstValueFrom(this.library.save(this.detail().id, { scenario: result.value, note: this.noteText().trim(), baseRevision: base.revision }));
+      this.doneText.set(`Saved as revision ${detail.revision}.`);
+      this.saved.emit(detail);
+    } catch (failure) {
+      const stale = staleSaveOf(failure);
+      if (stale) {
+        this.staleBody.set(stale);
+      } else {
+        this.failureText.set(apiErrorMessage(failure));
+        this.serverErrors.set(apiFieldErrors(failure));
+      }
+    } finally {
+      this.busy.set(false);
+    }
+  }
+
+  /** Saves the refused edit as a new scenario of its own: both versions stay. */
+  protected async saveAsCopy(): Promise<void> {
+    const stale = this.staleBody();
+    if (!stale) return;
+    this.busy.set(true);
+    this.failureText.set(null);
+    try {
+      const mine = stale.yours.scenario;
+      const note = stale.yours.note || `Copy of an edit of revision ${stale.yours.baseRevision}, saved after revision ${stale.current.number} came in`;
+      const created = await firstValueFrom(this.library.create({ scenario: { ...mine, name: copyName(mine.name) }, note, tags: this.detail().tags }));
+      this.staleBody.set(null);
+      this.editTexts.set({});
+      this.copied.emit(created);
+    } catch (failure) {
+      this.failureText.set(apiErrorMessage(failure));
+    } finally {
+      this.busy.set(false);
+    }
+  }
+
+  /** Moves the edit onto the newer revision: untouched fields take its values, edited ones keep mine. */
+  protected keepMineOnTheirs(): void {
+    const stale = this.staleBody();
+    if (!stale) return;
+    this.editBase.set({ revision: stale.current.number, scenario: stale.current.scenario });
+    this.staleBody.set(null);
+    this.keepEditsOnNextDetail = true;
+    this.reloadRequested.emit();
+  }
+
+  /** Drops the edit and loads the newer revision. */
+  protected reloadTheirs(): void {
+    this.staleBody.set(null);
+    this.editTexts.set({});
+    this.reloadRequested.emit();
+  }
+}
