@@ -6,11 +6,11 @@ const base = { DATABASE_URL: 'postgres://kinetwin@127.0.0.1:54329/kinetwin' };
 describe('readConfig: mail and link settings', () => {
   it('defaults to the outbox transport and links to the server itself', () => {
     const read = readConfig({ ...base, PORT: '4301' });
-    expect(read).toMatchObject({ ok: true, config: { mailTransport: 'outbox', smtpUrl: null, appBaseUrl: 'http://127.0.0.1:4301', invitationTtlHours: 72, passwordResetTtlMinutes: 60 } });
+    expect(read).toMatchObject({ ok: true, config: { mailTransport: 'outbox', smtpUrl: null, appBaseUrl: 'http://127.0.0.1:4301', appBaseUrlConfigured: false, invitationTtlHours: 72, passwordResetTtlMinutes: 60 } });
   });
 
   it('keeps only the origin of APP_BASE_URL', () => {
-    expect(readConfig({ ...base, APP_BASE_URL: 'https://kinetwin.example.test/some/path/' })).toMatchObject({ ok: true, config: { appBaseUrl: 'https://kinetwin.example.test' } });
+    expect(readConfig({ ...base, APP_BASE_URL: 'https://kinetwin.example.test/some/path/' })).toMatchObject({ ok: true, config: { appBaseUrl: 'https://kinetwin.example.test', appBaseUrlConfigured: true } });
   });
 
   it.each([

@@ -26,6 +26,8 @@ export interface ServerConfig {
   mailFrom: string;
   /** Origin the app is reached at; e-mailed links start with it, and unsafe requests may come from it. */
   appBaseUrl: string;
+  /** False when APP_BASE_URL is unset and appBaseUrl was made from HOST and PORT. */
+  appBaseUrlConfigured: boolean;
   invitationTtlHours: number;
   passwordResetTtlMinutes: number;
 }
@@ -85,6 +87,7 @@ export function readConfig(env: Record<string, string | undefined>): { ok: true;
       smtpUrl: e.SMTP_URL ?? null,
       mailFrom: e.MAIL_FROM,
       appBaseUrl: new URL(e.APP_BASE_URL ?? `http://${e.HOST}:${e.PORT}`).origin,
+      appBaseUrlConfigured: e.APP_BASE_URL !== undefined,
       invitationTtlHours: e.INVITATION_TTL_HOURS,
       passwordResetTtlMinutes: e.PASSWORD_RESET_TTL_MINUTES,
     },

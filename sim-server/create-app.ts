@@ -106,7 +106,12 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
   };
 
   const transport = createMailTransport(config.mailTransport, config.smtpUrl, database.db);
-  const deps: LibraryDeps = { db: database.db, mailer: createMailer(transport, config.mailFrom, logger), appBaseUrl: config.appBaseUrl };
+  // Without APP_BASE_URL, links point where this server really listens (PORT=0 picks the port late).
+  const linkBase = () => {
+    const address = config.appBaseUrlConfigured ? null : http.address();
+    return address && typeof address === 'object' ? `http://${config.host}:${address.port}` : config.appBaseUrl;
+  };
+  const deps: LibraryDeps = { db: database.db, mailer: createMailer(transport, config.mailFrom, logger), appBaseUrl: linkBase };
   const table = new RouteTable();
   const mount = (path: string, ...groups: ((router: ReturnType<RouteTable['under']>) => void)[]) => {
     const guarded = table.under(`/api${path}`);

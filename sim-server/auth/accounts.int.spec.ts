@@ -70,7 +70,7 @@ describe('accounts: sign-up, invitations, password reset, sign-out everywhere, C
     const mail = await lastMailTo(invitee);
     expect(mail!.subject).toBe('Ada Founder invited you to Founders lab on Kinetwin');
     const token = tokenIn(mail!.text)!;
-    expect(mail!.html).toContain(`${t.config.appBaseUrl}/accept-invitation?token=${token}`);
+    expect(mail!.html).toContain(`${t.baseUrl}/accept-invitation?token=${token}`);
     // Only the hash is stored.
     const [stored] = await t.database.db.select().from(invitations).where(eq(invitations.email, invitee));
     expect(stored!.tokenHash).not.toContain(token);

@@ -16,7 +16,7 @@ import { findUserById, findUserWithHashByEmail } from './user-store';
 export interface PasswordResetOptions {
   db: Database;
   mailer: Mailer;
-  appBaseUrl: string;
+  appBaseUrl: () => string;
   ttlMinutes: number;
   accountRequestLimit: number;
   windowMinutes: number;
@@ -34,7 +34,7 @@ export function passwordResetRoutes({ route }: GuardedRouter, { db, mailer, appB
       const { token, hash } = newLinkToken();
       const expiresAt = new Date(Date.now() + ttlMinutes * 60_000);
       await db.insert(passwordResets).values({ userId: user.id, tokenHash: hash, expiresAt });
-      await mailer.send(user.email, passwordResetMail({ displayName: user.displayName, url: `${appBaseUrl}/reset-password?token=${token}`, expiresAt }), user.teamId);
+      await mailer.send(user.email, passwordResetMail({ displayName: user.displayName, url: `${appBaseUrl()}/reset-password?token=${token}`, expiresAt }), user.teamId);
     }
     res.status(202).json({ message: RESET_REQUESTED });
   });

@@ -29,7 +29,7 @@ describe('hand-off, comments with mentions, sign-off notice, activity and the de
     const [mail] = await mailTo(lead.email);
     expect(mail).toMatchObject({ subject: `${engineer.displayName} handed you "Hand-off axis"`, fromAddress: t.config.mailFrom, teamId: team.teamId });
     expect(mail!.text).toContain('> Please check the <kick> on step 2 & sign off.');
-    expect(mail!.text).toContain(`${t.config.appBaseUrl}/library/${scenarioId}`);
+    expect(mail!.text).toContain(`${t.baseUrl}/library/${scenarioId}`);
     expect(mail!.html).toContain('Please check the &lt;kick&gt; on step 2 &amp; sign off.');
     expect(mail!.html).not.toMatch(/<img|https?:\/\/(?!127\.0\.0\.1)/);
 

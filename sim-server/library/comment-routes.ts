@@ -63,7 +63,7 @@ export function commentRoutes({ route }: GuardedRouter, { db, mailer, appBaseUrl
       return row!.id;
     });
     for (const person of notified) {
-      await mailer.send(person.email, mentionMail({ author: user.displayName, scenarioName: scenario.name, revision: n, body: body.body, url: scenarioLink(appBaseUrl, id, n) }), user.teamId);
+      await mailer.send(person.email, mentionMail({ author: user.displayName, scenarioName: scenario.name, revision: n, body: body.body, url: scenarioLink(appBaseUrl(), id, n) }), user.teamId);
     }
     const created = (await commentThreads(db, id, n)).flatMap(function all(c): Comment[] {
       return [c, ...c.replies.flatMap(all)];

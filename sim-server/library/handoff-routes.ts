@@ -48,7 +48,7 @@ export function scenarioHandoffRoutes({ route }: GuardedRouter, { db, mailer, ap
       await recordActivity(tx, { teamId: user.teamId, actorId: user.id, action: 'scenario.handed-off', scenarioId: id, detail: { to: to.displayName, access: body.access, revision: scenario.revision } });
       return row!.id;
     });
-    await mailer.send(to.email, handoffMail({ from: user.displayName, scenarioName: scenario.name, access: body.access, message: body.message, url: scenarioLink(appBaseUrl, id) }), user.teamId);
+    await mailer.send(to.email, handoffMail({ from: user.displayName, scenarioName: scenario.name, access: body.access, message: body.message, url: scenarioLink(appBaseUrl(), id) }), user.teamId);
     const [created] = await listHandoffs(db, user.teamId, eq(handoffs.id, handoffId));
     res.status(201).json(created);
   });

@@ -6,7 +6,8 @@ export interface LibraryDeps {
   db: Database;
   mailer: Mailer;
   /** Origin of the app, e.g. http://127.0.0.1:4300; e-mailed links start with it. */
-  appBaseUrl: string;
+  /** Origin e-mailed links start with (APP_BASE_URL, or where this server really listens). */
+  appBaseUrl: () => string;
 }
 
 /** Link to a scenario in the app, for e-mails. */

@@ -106,7 +106,7 @@ export function revisionRoutes({ route }: GuardedRouter, { db, mailer, appBaseUr
       return { name: row.name, ownerEmail: row.ownerId === user.id ? null : (owner?.email ?? null) };
     });
     if (signed.ownerEmail) {
-      await mailer.send(signed.ownerEmail, signOffMail({ lead: user.displayName, scenarioName: signed.name, revision: n, note: body.note, url: scenarioLink(appBaseUrl, id, n) }), user.teamId);
+      await mailer.send(signed.ownerEmail, signOffMail({ lead: user.displayName, scenarioName: signed.name, revision: n, note: body.note, url: scenarioLink(appBaseUrl(), id, n) }), user.teamId);
     }
     const revision = (await findRevision(db, id, n))!;
     const { id: _rowId, ...detail } = revision;

@@ -94,7 +94,7 @@ export function teamRoutes({ route }: GuardedRouter, { db, mailer, appBaseUrl, i
       await recordActivity(tx, { teamId: admin.teamId, actorId: admin.id, action: 'member.invited', detail: { email: body.email, role: body.role } });
       return row!;
     });
-    const url = `${appBaseUrl}/accept-invitation?token=${token}`;
+    const url = `${appBaseUrl()}/accept-invitation?token=${token}`;
     const sent = await mailer.send(body.email, invitationMail({ inviter: admin.displayName, teamName: team!.name, role: body.role, url, expiresAt }), admin.teamId);
     const summary: InvitationSummary & { emailSent: boolean } = {
       id: created.id,
