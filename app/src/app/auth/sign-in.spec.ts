@@ -6,8 +6,8 @@ import { Router, provideRouter } from '@angular/router';
 import type { AppInfo } from '@kinetwin/shared/protocol/api-types';
 import { SignIn } from './sign-in';
 
-@Component({ selector: 'kt-landing-stub', template: 'landing' })
-class LandingStub {}
+@Component({ selector: 'kt-library-landing', template: 'landing' })
+class LibraryLanding {}
 
 const demoInfo: AppInfo = {
   version: '0.1.0',
@@ -51,7 +51,7 @@ describe('SignIn', () => {
 
   beforeEach(() => {
     TestBed.configureTestingModule({
-      providers: [provideRouter([{ path: 'library', component: LandingStub }]), provideHttpClient(), provideHttpClientTesting()],
+      providers: [provideRouter([{ path: 'library', component: LibraryLanding }]), provideHttpClient(), provideHttpClientTesting()],
     });
     http = TestBed.inject(HttpTestingController);
   });
