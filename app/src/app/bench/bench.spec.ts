@@ -6,7 +6,7 @@ import { By } from '@angular/platform-browser';
 import { provideRouter } from '@angular/router';
 import { responseAt, solveClosedForm } from '@kinetwin/shared/closed-form/index';
 import type { ScenarioDetail } from '@kinetwin/shared/protocol/api-types';
-import type { RunFrame } from '@kinetwin/shared/protocol/run-events';
+import type { RunControlState, RunFrame, RunSample } from '@kinetwin/shared/protocol/run-events';
 import { RUN_SOCKET_FACTORY, type RunSocketClient } from '../core/run-socket-factory';
 import { FakeRunSocketClient } from '../core/testing/fake-run-socket-client';
 import { AngleChart } from './angle-chart';
@@ -44,9 +44,9 @@ const detail: ScenarioDetail = {
   },
 };
 
-function frame(runId: string, t: number[], angle: number[]): RunFrame {
+function frame(runId: string, t: number[], angle: number[], extra: Partial<RunFrame> = {}): RunFrame {
   const zeros = () => t.map(() => 0);
-  return { runId, t, angle, velocity: zeros(), controllerTorque: zeros(), appliedTorque: zeros(), saturating: zeros(), sticking: zeros() };
+  return { runId, t, angle, velocity: zeros(), controllerTorque: zeros(), appliedTorque: zeros(), saturating: zeros(), sticking: zeros(), ...extra };
 }
 
 describe('Bench', () => {
@@ -250,5 +250,213 @@ describe('Bench', () => {
 
     expect(text('[data-test=residual]')).toContain('Last run: max |twin − closed form| = 0.002 rad at t = 0.5 s');
     expect(text('[data-test=residual]')).toContain('501 twin samples');
+  });
+  describe('live-run controls', () => {
+    const started = { status: 'ok' as const, data: { runId: 'r1', scenarioName: 'Demo wrist pitch', horizon: 2, dt: 0.002 } };
+    const control = (state: RunControlState['state'], simulatedTime: number, speed = 1) => ({ status: 'ok' as const, data: { runId: 'r1', state, speed, simulatedTime } });
+    const t = Array.from({ length: 301 }, (_, i) => i * 0.002);
+    const kickButton = (name: string) => page.querySelector<HTMLButtonElement>(`[data-test=kick-panel] [data-test=${name}]`);
+    const scrubInput = () => page.querySelector<HTMLInputElement>('[data-test=scrub]');
+    const readout = () =>
+      [...page.querySelectorAll('[data-test=scrub-readout] [data-reading]')].map((row) => `${row.querySelector('dt')?.textContent?.trim()} ${row.querySelector('dd')?.textContent?.trim()}`).join('; ');
+
+    async function startLive(): Promise<void> {
+      http.expectOne('/api/scenarios/5').flush(detail);
+      await fixture.whenStable();
+      button('run').click();
+      client.last('run:start').ack(started);
+      await settle();
+    }
+    async function scrubTo(time: number): Promise<void> {
+      const input = scrubInput()!;
+      input.value = String(time);
+      input.dispatchEvent(new Event('input'));
+      input.dispatchEvent(new Event('change'));
+      await fixture.whenStable();
+    }
+
+    it('keeps the live controls disabled until a run is live', async () => {
+      http.expectOne('/api/scenarios/5').flush(detail);
+      await fixture.whenStable();
+      expect(button('pause').disabled).toBe(true);
+      expect(field('kick.amplitude').disabled).toBe(true);
+      for (const name of ['kick-torque-impulse', 'kick-torque-step', 'kick-reference-step']) expect(kickButton(name)?.disabled).toBe(true);
+      expect(scrubInput()).toBeNull();
+
+      button('run').click();
+      await fixture.whenStable();
+      expect(text('[data-test=run-status]')).toBe('starting');
+      expect(button('pause').disabled).toBe(true);
+      expect(kickButton('kick-torque-step')?.disabled).toBe(true);
+
+      client.last('run:start').ack(started);
+      await settle();
+      expect(button('pause').disabled).toBe(false);
+      expect(kickButton('kick-torque-step')?.disabled).toBe(false);
+      expect(field('kick.amplitude').disabled).toBe(false);
+
+      client.receive('run:end', { runId: 'r1', reason: 'finished', message: 'horizon reached', simulatedTime: 2 });
+      await settle();
+      expect(button('pause').disabled).toBe(true);
+      expect(kickButton('kick-torque-impulse')?.disabled).toBe(true);
+      expect(client.emitted.filter((e) => e.event === 'run:pause' || e.event === 'run:kick')).toEqual([]);
+    });
+
+    it('pauses, resumes and changes speed, and sends the chosen speed with the next run', async () => {
+      http.expectOne('/api/scenarios/5').flush(detail);
+      await fixture.whenStable();
+      const speed = page.querySelector<HTMLSelectElement>('[data-test=speed]')!;
+      expect([...speed.options].map((o) => o.textContent?.trim())).toEqual(['×0.1', '×0.5', '×1', '×2', '×5', '×10', 'max']);
+      expect(speed.value).toBe('1');
+      speed.value = '5';
+      speed.dispatchEvent(new Event('change'));
+      await fixture.whenStable();
+      // No run is live: the speed waits for the next Run.
+      expect(client.emitted.filter((e) => e.event === 'run:speed')).toEqual([]);
+
+      button('run').click();
+      await fixture.whenStable();
+      expect(client.last('run:start').payload).toEqual({ scenarioId: 5, speed: 5 });
+      client.last('run:start').ack(started);
+      await settle();
+      client.receive('run:frame', frame('r1', [0, 0.002, 0.004], [0.1, 0.11, 0.12]));
+      await fixture.whenStable();
+
+      button('pause').click();
+      expect(client.last('run:pause').payload).toEqual({ runId: 'r1' });
+      client.last('run:pause').ack(control('paused', 0.004, 5));
+      await settle();
+      expect(text('[data-test=run-status]')).toBe('paused t = 0.00 s');
+      expect(page.querySelector('[data-test=pause]')).toBeNull();
+      expect(button('stop').disabled).toBe(false);
+      expect(button('run').disabled).toBe(true);
+
+      speed.value = '0';
+      speed.dispatchEvent(new Event('change'));
+      expect(client.last('run:speed').payload).toEqual({ runId: 'r1', speed: 0 });
+      client.last('run:speed').ack(control('paused', 0.004, 0));
+      await settle();
+
+      button('resume').click();
+      expect(client.last('run:resume').payload).toEqual({ runId: 'r1' });
+      client.last('run:resume').ack(control('running', 0.004, 0));
+      await settle();
+      client.receive('run:frame', frame('r1', [0.006, 0.5], [0.13, 0.4]));
+      await fixture.whenStable();
+      expect(text('[data-test=run-status]')).toBe('running t = 0.50 s');
+      expect(button('pause').disabled).toBe(false);
+    });
+
+    it('shows the errors of a refused control', async () => {
+      await startLive();
+      button('pause').click();
+      client.last('run:pause').ack({ status: 'error', errors: [{ field: 'runId', message: 'no live run has that id' }] });
+      await settle();
+      expect(text('[data-test=run-errors]')).toContain('no live run has that id');
+      expect(text('[data-test=run-status]')).toBe('running t = 0.00 s');
+    });
+
+    it('adds a kick to the closed form by superposition and lists it, without editing the scenario', async () => {
+      http.expectOne('/api/scenarios/5').flush(detail);
+      await settleClosedForm();
+      const before = Float64Array.from(chart().closedForm()!.angle);
+      button('run').click();
+      client.last('run:start').ack(started);
+      await settle();
+
+      await type('kick.amplitude', '0.02');
+      kickButton('kick-torque-impulse')!.click();
+      expect(client.last('run:kick').payload).toEqual({ runId: 'r1', kick: { channel: 'torque', shape: 'impulse', amplitude: 0.02 } });
+      const term = { channel: 'torque' as const, shape: 'impulse' as const, amplitude: 0.02, delay: 0.3 };
+      client.last('run:kick').ack({ status: 'ok', data: { runId: 'r1', term } });
+      await settleClosedForm();
+
+      expect([...page.querySelectorAll('[data-test=kick-list] li')].map((li) => li.textContent?.trim())).toEqual(['torque impulse 0.02 N·m·s at t = 0.3 s']);
+      expect(button('reset-edits').disabled).toBe(true);
+      // The drawn closed form is the scenario's with the kick appended to its inputs.
+      const kicked = solveClosedForm({ ...detail.scenario, inputs: [...detail.scenario.inputs, term] });
+      if (!kicked.ok) throw new Error('the kicked scenario has no closed form');
+      const trace = chart().closedForm()!;
+      const late = trace.t.findIndex((x) => x >= 0.6);
+      expect(trace.angle[late]).toBeCloseTo(responseAt(kicked.value.plan, trace.t[late], 0), 12);
+      expect(Math.abs(trace.angle[late] - before[late])).toBeGreaterThan(1e-4);
+      // Before the kick lands, superposition leaves the response as it was.
+      const early = trace.t.findIndex((x) => x >= 0.2);
+      expect(trace.angle[early]).toBeCloseTo(before[early], 12);
+
+      // A twin that took the kick agrees with that closed form: the residual stays at zero.
+      const twin = Array.from({ length: 1001 }, (_, i) => i * 0.002);
+      client.receive('run:frame', frame('r1', twin, twin.map((x) => responseAt(kicked.value.plan, x, 0))));
+      client.receive('run:end', { runId: 'r1', reason: 'finished', message: 'horizon reached', simulatedTime: 2 });
+      await settle();
+      await settle();
+      expect(text('[data-test=residual]')).toContain('max |twin − closed form| = 0 rad');
+
+      // A new run starts without the old run's kicks.
+      button('run').click();
+      await settleClosedForm();
+      expect(page.querySelector('[data-test=kick-list]')).toBeNull();
+      expect(chart().closedForm()!.angle[late]).toBeCloseTo(before[late], 12);
+    });
+
+    it('offers a reference step only in closed loop and shows refused and unreadable kicks', async () => {
+      await startLive();
+      expect(kickButton('kick-reference-step')).not.toBeNull();
+      await type('kick.amplitude', 'lots');
+      kickButton('kick-torque-step')!.click();
+      await fixture.whenStable();
+      expect(text('[data-test=kick-errors]')).toContain('amplitude must be a finite number, got "lots"');
+      expect(client.emitted.filter((e) => e.event === 'run:kick')).toEqual([]);
+
+      await type('kick.amplitude', '1e9');
+      kickButton('kick-reference-step')!.click();
+      client.last('run:kick').ack({ status: 'error', errors: [{ field: 'kick.amplitude', message: 'amplitude is out of range' }] });
+      await settle();
+      expect(text('[data-test=kick-errors]')?.replace(/\s+/g, ' ')).toContain('kick.amplitude: amplitude is out of range');
+      expect(page.querySelector('[data-test=kick-list]')).toBeNull();
+    });
+
+    it('scrubs a paused run through the server and a finished one from its own samples', async () => {
+      await startLive();
+      const velocity = t.map((x) => 2 * x);
+      client.receive('run:frame', frame('r1', t, t.map((x) => x * x), { velocity, appliedTorque: t.map(() => 0.7), saturating: t.map((x) => (x > 0.55 ? 1 : 0)) }));
+      await fixture.whenStable();
+      expect(page.querySelector('[data-test=saturating]')).not.toBeNull();
+      expect(page.querySelector('[data-test=sticking]')).toBeNull();
+      expect(scrubInput()).toBeNull();
+
+      button('pause').click();
+      client.last('run:pause').ack(control('paused', 0.6));
+      await settle();
+      await scrubTo(0.5);
+      expect(client.last('run:scrub').payload).toEqual({ runId: 'r1', time: 0.5 });
+      const sample: RunSample = { t: 0.5, angle: 0.25, velocity: 1, controllerTorque: 0.7, appliedTorque: 0.7, saturating: false, sticking: true };
+      client.last('run:scrub').ack({ status: 'ok', data: sample });
+      await settle();
+      const readings = readout();
+      expect(readings).toContain('t 0.5 s');
+      expect(readings).toContain('angle 0.25 rad');
+      expect(readings).toContain('velocity 1 rad/s');
+      expect(readings).toContain('applied torque 0.7 N·m');
+      expect(readings).toContain('sticking yes');
+      expect(text('[data-test=run-status]')).toBe('paused t = 0.60 s');
+
+      button('resume').click();
+      client.last('run:resume').ack(control('running', 0.6));
+      await settle();
+      expect(page.querySelector('[data-test=scrub-readout]')).toBeNull();
+      client.receive('run:end', { runId: 'r1', reason: 'stopped', message: 'stopped by the user', simulatedTime: 0.6 });
+      await settle();
+
+      const asked = client.emitted.filter((e) => e.event === 'run:scrub').length;
+      await scrubTo(0.301);
+      // The run is over: the bench reads its own samples (every 2 ms here) and asks nobody.
+      expect(client.emitted.filter((e) => e.event === 'run:scrub')).toHaveLength(asked);
+      const after = readout();
+      expect(after).toContain('t 0.3 s');
+      expect(after).toContain('angle 0.09 rad');
+      expect(after).toContain('velocity 0.6 rad/s');
+      expect(after).toContain('saturating no');
+    });
   });
 });

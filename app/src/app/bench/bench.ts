@@ -2,11 +2,13 @@ import { ChangeDetectionStrategy, Component, computed, effect, inject, input, si
 import { takeUntilDestroyed, toObservable, toSignal } from '@angular/core/rxjs-interop';
 import { MatButtonModule } from '@angular/material/button';
 import { MatIconModule } from '@angular/material/icon';
+import { MatSliderModule } from '@angular/material/slider';
 import { Title } from '@angular/platform-browser';
 import { Router, RouterLink } from '@angular/router';
 import type { LibraryDetail } from '@kinetwin/shared/protocol/library-api';
-import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
-import type { FieldError } from '@kinetwin/shared/validation/field-errors';
+import type { RunSample } from '@kinetwin/shared/protocol/run-events';
+import type { InputTerm, Scenario } from '@kinetwin/shared/scenario/scenario-schema';
+import type { FieldError, Parsed } from '@kinetwin/shared/validation/field-errors';
 import { catchError, debounceTime, map, of, startWith, switchMap } from 'rxjs';
 import { apiErrorMessage } from '../core/api-error-message';
 import type { LoadState } from '../core/load-state';
@@ -19,16 +21,43 @@ import { type ClosedFormEngine, loadClosedFormEngine } from './closed-form-engin
 import { ClosedFormPanel } from './closed-form-panel';
 import { type ClosedFormView, closedFormView } from './closed-form-view';
 import { JointView } from './joint-view';
+import { type KickEntry, KickPanel, type KickRequest } from './kick-panel';
 import { type ResidualPeak, largestResidual } from './residual';
 import { runChoice } from './run-choice';
 import { SaveRevisionPanel } from './save-revision-panel';
-import { type RunStatus, isRunActive, runStatusText, statusOfRunEnd } from './run-status';
+import { RunRecord, type SampleFlags, latestFlags } from './run-record';
+import { sampleReadings } from './run-sample-text';
+import { type RunStatus, isRunActive, isRunLive, runStatusText, statusOfRunEnd } from './run-status';
 import { type ScenarioEdits, editedScenario } from './scenario-draft';
 import { describeInputTerm, formatQuantity, scenarioFacts } from './scenario-facts';
 import { type FieldEdit, TuningForm } from './tuning-form';
 
 /** Quiet time after the last keystroke before the closed form is solved again, ms. */
 export const CLOSED_FORM_DEBOUNCE_MS = 150;
+
+/** Playback speeds offered, × real time; 0 runs as fast as the server can. */
+export const SPEED_CHOICES: readonly { value: number; label: string }[] = [
+  { value: 0.1, label: '×0.1' },
+  { value: 0.5, label: '×0.5' },
+  { value: 1, label: '×1' },
+  { value: 2, label: '×2' },
+  { value: 5, label: '×5' },
+  { value: 10, label: '×10' },
+  { value: 0, label: 'max' },
+];
+/** Playback speed the server assumes when a start request names none, × real time. */
+const SERVER_DEFAULT_SPEED = 1;
+
+/** A kick the run took, with the id the kick list tracks it by. */
+interface AppliedKick {
+  id: number;
+  term: InputTerm;
+}
+
+/** The scenario with the run's kicks appended to its forcing terms: its closed form is the whole run's, by superposition. */
+function withKicks(scenario: Scenario, kicks: readonly AppliedKick[]): Scenario {
+  return kicks.length === 0 ? scenario : { ...scenario, inputs: [...scenario.inputs, ...kicks.map((kick) => kick.term)] };
+}
 
 /** The twin-against-closed-form comparison after a run. */
 type ResidualState = { kind: 'none' } | { kind: 'measured'; peak: ResidualPeak; inline: boolean } | { kind: 'unavailable'; message: string };
@@ -48,7 +77,7 @@ const LINK_TEXT: Record<RunLink, string> = {
   selector: 'kt-bench',
   changeDetection: ChangeDetectionStrategy.OnPush,
   providers: [RunSocket],
-  imports: [AngleChart, ClosedFormPanel, JointView, MatButtonModule, MatIconModule, RouterLink, SaveRevisionPanel, TuningForm],
+  imports: [AngleChart, ClosedFormPanel, JointView, KickPanel, MatButtonModule, MatIconModule, MatSliderModule, RouterLink, SaveRevisionPanel, TuningForm],
   templateUrl: './bench.html',
   styleUrl: './bench.css',
 })
@@ -89,6 +118,25 @@ export class Bench {
   private readonly engineFailure = signal<string | null>(null);
   private readonly residualState = signal<ResidualState>({ kind: 'none' });
   protected readonly residual = this.residualState.asReadonly();
+  /** Playback speed for the live run and the next one, × real time (0 = as fast as possible). */
+  private readonly playbackSpeed = signal(SERVER_DEFAULT_SPEED);
+  protected readonly speed = this.playbackSpeed.asReadonly();
+  /** The kicks the current run took; the closed form adds them to the edited scenario's inputs. */
+  private readonly runKicks = signal<readonly AppliedKick[]>([]);
+  private readonly kickFailures = signal<FieldError[]>([]);
+  protected readonly kickErrors = this.kickFailures.asReadonly();
+  /** The sample the scrub slider points at; null while the joint follows the stream. */
+  private readonly scrubSample = signal<RunSample | null>(null);
+  protected readonly scrubbed = this.scrubSample.asReadonly();
+  /** Time of the last sample the run has computed and sent, s: the scrub slider's end. */
+  private readonly computedTime = signal(0);
+  protected readonly computedUntil = this.computedTime.asReadonly();
+  /** Samples recorded for scrubbing once the run is over (0 before any run). */
+  private readonly recordedSamples = signal(0);
+  private readonly newestFlags = signal<SampleFlags>({ saturating: false, sticking: false });
+  protected readonly flags = this.newestFlags.asReadonly();
+  protected readonly speedChoices = SPEED_CHOICES;
+  protected readonly scrubLabel = (time: number): string => `${time.toFixed(2)} s`;
 
   /** A newer revision the save panel brought in (after a save, or theirs after a conflict). */
   private readonly replacedDetail = signal<LibraryDetail | null>(null);
@@ -130,7 +178,10 @@ export class Bench {
     const failure = this.engineFailure();
     if (failure !== null) return { kind: 'failed', message: failure };
     const settled = this.settled();
-    return settled ? closedFormView(this.engine(), settled) : { kind: 'loading' };
+    if (!settled) return { kind: 'loading' };
+    const kicks = this.runKicks();
+    const whole: Parsed<Scenario> = settled.ok ? { ok: true, value: withKicks(settled.value, kicks) } : settled;
+    return closedFormView(this.engine(), whole);
   });
   protected readonly closedFormTrace = computed(() => {
     const view = this.closedForm();
@@ -145,6 +196,19 @@ export class Bench {
   protected readonly statusText = computed(() => runStatusText(this.runStatus()));
   protected readonly canRun = computed(() => this.scenario() !== null && this.editErrors().length === 0 && !isRunActive(this.runStatus()));
   protected readonly canStop = computed(() => isRunActive(this.runStatus()));
+  protected readonly live = computed(() => isRunLive(this.runStatus()));
+  protected readonly paused = computed(() => this.runStatus().kind === 'paused');
+  protected readonly closedLoop = computed(() => this.current()?.controller.mode === 'pid');
+  protected readonly kickEntries = computed((): KickEntry[] => this.runKicks().map((kick) => ({ id: kick.id, text: describeInputTerm(kick.term) })));
+  /** The scrub slider shows while the live run is paused, or once a run has ended with samples. */
+  protected readonly canScrub = computed(() => {
+    const status = this.runStatus();
+    return status.kind === 'paused' || (!isRunActive(status) && this.recordedSamples() > 0);
+  });
+  protected readonly scrubReadings = computed(() => {
+    const sample = this.scrubSample();
+    return sample ? sampleReadings(sample) : [];
+  });
   protected readonly linkText = computed(() => LINK_TEXT[this.link()]);
 
   /** Time of the last charted sample of the current run, s. */
@@ -153,6 +217,13 @@ export class Bench {
   private runSpacing = 0;
   /** The scenario the current run was started with, for the residual; null before any run. */
   private ranScenario: { scenario: Scenario; inline: boolean } | null = null;
+  /** The server's id of the run this bench shows while it is live; null otherwise. */
+  private liveRunId: string | null = null;
+  /** The current run's samples, for scrubbing after it ends. */
+  private record = new RunRecord(0);
+  /** The newest streamed angle, rad: where the joint returns when a scrubbed run resumes. */
+  private streamedAngle = 0;
+  private nextKickId = 1;
 
   constructor() {
     this.runs.events$.pipe(takeUntilDestroyed()).subscribe((event) => this.applyRunEvent(event));
@@ -229,14 +300,29 @@ export class Bench {
     this.chartedUntil = Number.NEGATIVE_INFINITY;
     this.runSpacing = chartSpacing(scenario.horizon);
     this.jointAngle.set(scenario.initial.angle);
+    this.streamedAngle = scenario.initial.angle;
     this.fieldErrors.set([]);
+    this.runKicks.set([]);
+    this.kickFailures.set([]);
+    this.scrubSample.set(null);
+    this.computedTime.set(0);
+    this.record = new RunRecord(this.runSpacing);
+    this.recordedSamples.set(0);
+    this.newestFlags.set({ saturating: false, sticking: false });
+    this.liveRunId = null;
     this.runStatus.set({ kind: 'starting' });
 
-    const ack = await this.runs.start(choice.request);
+    const speed = this.playbackSpeed();
+    // The server's default speed goes unsaid, so a plain run asks for exactly what it did before speeds existed.
+    const request = speed === SERVER_DEFAULT_SPEED ? choice.request : { ...choice.request, speed };
+    const ack = await this.runs.start(request);
     // Frames, the end or a Stop may already have moved the status on; only a waiting start is ours to settle.
+    if (ack.status === 'ok' && isRunActive(this.runStatus())) this.liveRunId = ack.data.runId;
     if (this.runStatus().kind !== 'starting') return;
     if (ack.status === 'ok') {
       this.runStatus.set({ kind: 'running', time: 0 });
+      // The speed changed while the start was on its way: the live run takes the newer one.
+      if (this.playbackSpeed() !== speed) void this.applySpeed(this.playbackSpeed());
     } else {
       this.fieldErrors.set(ack.errors);
       this.runStatus.set({ kind: 'error', message: ack.errors[0]?.message ?? 'the server refused the run' });
@@ -257,23 +343,124 @@ export class Bench {
     // On success the run's 'end' event (reason 'stopped') sets the status.
   }
 
+  /** Pauses the live run; the status shows the time it stopped at. */
+  protected async pauseRun(): Promise<void> {
+    const runId = this.liveRunId;
+    if (runId === null || this.runStatus().kind !== 'running') return;
+    const ack = await this.runs.pause(runId);
+    if (runId !== this.liveRunId || !isRunLive(this.runStatus())) return;
+    if (ack.status === 'ok') {
+      this.runStatus.set({ kind: 'paused', time: ack.data.simulatedTime });
+    } else {
+      this.fieldErrors.set(ack.errors);
+    }
+  }
+
+  /** Resumes the paused run from where it was; the joint follows the stream again. */
+  protected async resumeRun(): Promise<void> {
+    const runId = this.liveRunId;
+    if (runId === null || this.runStatus().kind !== 'paused') return;
+    const ack = await this.runs.resume(runId);
+    if (runId !== this.liveRunId || !isRunLive(this.runStatus())) return;
+    if (ack.status === 'ok') {
+      this.scrubSample.set(null);
+      this.jointAngle.set(this.streamedAngle);
+      this.runStatus.set({ kind: ack.data.state, time: ack.data.simulatedTime });
+    } else {
+      this.fieldErrors.set(ack.errors);
+    }
+  }
+
+  /** Picks the playback speed from the selector: for the live run now, and for the next Run. */
+  protected chooseSpeed(event: Event): void {
+    const speed = Number((event.target as HTMLSelectElement).value);
+    if (!SPEED_CHOICES.some((choice) => choice.value === speed)) return;
+    this.playbackSpeed.set(speed);
+    void this.applySpeed(speed);
+  }
+
+  private async applySpeed(speed: number): Promise<void> {
+    const runId = this.liveRunId;
+    if (runId === null || !isRunLive(this.runStatus())) return;
+    const ack = await this.runs.setSpeed(runId, speed);
+    if (ack.status === 'error' && runId === this.liveRunId) this.fieldErrors.set(ack.errors);
+  }
+
+  /**
+   * Shows the run at `time` (s): the server's recorded sample while the run is live (which also
+   * pauses it), else the nearest sample this bench recorded.
+   */
+  protected async scrubTo(time: number): Promise<void> {
+    if (!Number.isFinite(time)) return;
+    const runId = this.liveRunId;
+    if (runId !== null && isRunLive(this.runStatus())) {
+      const ack = await this.runs.scrub(runId, time);
+      if (runId !== this.liveRunId || !isRunLive(this.runStatus())) return;
+      if (ack.status === 'ok') {
+        this.showSample(ack.data);
+        this.runStatus.set({ kind: 'paused', time: this.computedTime() });
+      } else {
+        this.fieldErrors.set(ack.errors);
+      }
+      return;
+    }
+    const sample = this.record.nearest(time);
+    if (sample) this.showSample(sample);
+  }
+
+  /** Kicks the live run; the forcing term it took joins the closed form and the kick list. */
+  protected async kickRun(kick: KickRequest): Promise<void> {
+    const runId = this.liveRunId;
+    if (runId === null || !isRunLive(this.runStatus())) return;
+    const ack = await this.runs.kick(runId, kick);
+    if (runId !== this.liveRunId) return;
+    if (ack.status === 'ok') {
+      const id = this.nextKickId++;
+      this.runKicks.update((kicks) => [...kicks, { id, term: ack.data.term }]);
+      this.kickFailures.set([]);
+    } else {
+      this.kickFailures.set(ack.errors);
+    }
+  }
+
+  private showSample(sample: RunSample): void {
+    this.scrubSample.set(sample);
+    if (Number.isFinite(sample.angle)) this.jointAngle.set(sample.angle);
+  }
+
   private applyRunEvent(event: RunEvent): void {
     switch (event.kind) {
       case 'frame': {
         const { batch, lastTime } = chartBatchOfFrame(event.frame, this.chartedUntil, this.runSpacing);
         this.chartedUntil = lastTime;
         this.chartFeed.update((feed) => appendToChartFeed(feed, batch));
+        this.record.append(event.frame);
         const angle = latestAngle(event.frame);
-        if (angle !== null) this.jointAngle.set(angle);
+        if (angle !== null) {
+          this.streamedAngle = angle;
+          // A scrubbed sample holds the joint until the run resumes.
+          if (this.scrubSample() === null) this.jointAngle.set(angle);
+        }
+        const flags = latestFlags(event.frame);
+        if (flags) this.newestFlags.set(flags);
         const time = latestTime(event.frame);
-        if (time !== null && isRunActive(this.runStatus())) this.runStatus.set({ kind: 'running', time });
+        if (time !== null) {
+          this.computedTime.set(Math.max(this.computedTime(), time));
+          // Frames sent before a pause took effect may trail its answer: the run stays paused.
+          const kind = this.runStatus().kind === 'paused' ? 'paused' : 'running';
+          if (isRunActive(this.runStatus())) this.runStatus.set({ kind, time: kind === 'paused' ? this.computedTime() : time });
+        }
         break;
       }
       case 'end':
+        this.liveRunId = null;
+        this.recordedSamples.set(this.record.size);
         this.runStatus.set(statusOfRunEnd(event.end));
         void this.measureResidual();
         break;
       case 'failed':
+        this.liveRunId = null;
+        this.recordedSamples.set(this.record.size);
         this.fieldErrors.set(event.failure.errors);
         this.runStatus.set({ kind: 'error', message: event.failure.errors[0]?.message ?? 'the run failed' });
         break;
@@ -295,7 +482,8 @@ export class Bench {
     // A newer run may have started while the engine loaded.
     if (this.ranScenario !== ran || this.chartFeed().run !== feed.run) return;
     try {
-      const solved = engine.solveClosedForm(ran.scenario);
+      // The kicks joined the run's inputs on the server: the closed form of the run takes them too.
+      const solved = engine.solveClosedForm(withKicks(ran.scenario, this.runKicks()));
       if (!solved.ok) {
         this.residualState.set({ kind: 'unavailable', message: `No residual: ${solved.errors[0]?.message ?? 'the scenario has no closed form'}.` });
         return;

@@ -8,8 +8,8 @@ import type { FieldError, Parsed } from '@kinetwin/shared/validation/field-error
  */
 export type ScenarioEdits = Readonly<Record<string, string>>;
 
-// Plain decimal notation only: Number() alone would also take "0x10", "" and "Infinity".
-const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
+/** Plain decimal notation only: Number() alone would also take "0x10", "" and "Infinity". */
+export const DECIMAL = /^[+-]?(\d+\.?\d*|\.\d+)(e[+-]?\d+)?$/i;
 
 /** The value at a dotted path of plain data; undefined when the path leads nowhere. */
 export function valueAtPath(data: unknown, path: string): unknown {

@@ -1,8 +1,8 @@
 import { Component, inject } from '@angular/core';
 import { TestBed } from '@angular/core/testing';
 import type { Ack } from '@kinetwin/shared/protocol/ack';
-import type { RunFrame, RunStartRequest, RunStarted } from '@kinetwin/shared/protocol/run-events';
-import { LINK_LOST_MESSAGE, NO_ANSWER_MESSAGE, RUN_ACK_TIMEOUT_MS, type RunEvent, type RunLink, RunSocket, STOPPED_BEFORE_START_MESSAGE } from './run-socket';
+import type { RunControlState, RunFrame, RunKicked, RunSample, RunStartRequest, RunStarted } from '@kinetwin/shared/protocol/run-events';
+import { LINK_LOST_MESSAGE, NOT_LIVE_MESSAGE, NO_ANSWER_MESSAGE, RUN_ACK_TIMEOUT_MS, type RunEvent, type RunLink, RunSocket, STOPPED_BEFORE_START_MESSAGE } from './run-socket';
 import { RUN_SOCKET_FACTORY, type RunSocketClient } from './run-socket-factory';
 import { FakeRunSocketClient } from './testing/fake-run-socket-client';
 
@@ -192,5 +192,64 @@ describe('RunSocket', () => {
     expect(client.last('run:stop').payload).toEqual({ runId: 'r1' });
     expect(client.disconnected).toBe(true);
     expect(completed).toBe(true);
+  });
+  describe('live-run controls', () => {
+    const paused: RunControlState = { runId: 'r1', state: 'paused', speed: 1, simulatedTime: 0.42 };
+
+    async function live(): Promise<void> {
+      const answer = runs.start(request);
+      client.last('run:start').ack(started('r1'));
+      await answer;
+    }
+
+    it('sends pause, resume and speed for the live run and resolves with their acks', async () => {
+      await live();
+      const pausing = runs.pause('r1');
+      expect(client.last('run:pause').payload).toEqual({ runId: 'r1' });
+      client.last('run:pause').ack({ status: 'ok', data: paused });
+      await expect(pausing).resolves.toEqual({ status: 'ok', data: paused });
+
+      const resuming = runs.resume('r1');
+      expect(client.last('run:resume').payload).toEqual({ runId: 'r1' });
+      client.last('run:resume').ack({ status: 'ok', data: { ...paused, state: 'running' } });
+      await expect(resuming).resolves.toMatchObject({ status: 'ok', data: { state: 'running' } });
+
+      const faster = runs.setSpeed('r1', 0);
+      expect(client.last('run:speed').payload).toEqual({ runId: 'r1', speed: 0 });
+      const refused = { status: 'error' as const, errors: [{ field: 'speed', message: 'speed must be 0 (as fast as possible) or between 0.1 and 10' }] };
+      client.last('run:speed').ack(refused);
+      await expect(faster).resolves.toEqual(refused);
+    });
+
+    it('scrubs to a time and kicks, resolving with the sample and the term the run took', async () => {
+      await live();
+      const sample: RunSample = { t: 0.5, angle: 0.3, velocity: 0.1, controllerTorque: 1, appliedTorque: 1, saturating: false, sticking: false };
+      const scrubbing = runs.scrub('r1', 0.5);
+      expect(client.last('run:scrub').payload).toEqual({ runId: 'r1', time: 0.5 });
+      client.last('run:scrub').ack({ status: 'ok', data: sample });
+      await expect(scrubbing).resolves.toEqual({ status: 'ok', data: sample });
+
+      const kicked: RunKicked = { runId: 'r1', term: { channel: 'torque', shape: 'impulse', amplitude: 0.02, delay: 0.51 } };
+      const kicking = runs.kick('r1', { channel: 'torque', shape: 'impulse', amplitude: 0.02 });
+      expect(client.last('run:kick').payload).toEqual({ runId: 'r1', kick: { channel: 'torque', shape: 'impulse', amplitude: 0.02 } });
+      client.last('run:kick').ack({ status: 'ok', data: kicked });
+      await expect(kicking).resolves.toEqual({ status: 'ok', data: kicked });
+    });
+
+    it('refuses controls of a run that is not live here without asking the server', async () => {
+      await expect(runs.pause('r1')).resolves.toEqual({ status: 'error', errors: [{ field: '', message: NOT_LIVE_MESSAGE }] });
+      await live();
+      client.receive('run:end', { runId: 'r1', reason: 'finished', message: '', simulatedTime: 2 });
+      await expect(runs.kick('r1', { channel: 'torque', shape: 'step', amplitude: 1 })).resolves.toMatchObject({ status: 'error' });
+      expect(client.emitted.filter((e) => e.event === 'run:pause' || e.event === 'run:kick')).toEqual([]);
+    });
+
+    it('gives up on a control the server never answers', async () => {
+      await live();
+      vi.useFakeTimers();
+      const answer = runs.resume('r1');
+      vi.advanceTimersByTime(RUN_ACK_TIMEOUT_MS);
+      await expect(answer).resolves.toEqual({ status: 'error', errors: [{ field: '', message: NO_ANSWER_MESSAGE }] });
+    });
   });
 });

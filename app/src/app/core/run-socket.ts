@@ -1,6 +1,6 @@
 import { DestroyRef, Injectable, inject } from '@angular/core';
 import type { Ack } from '@kinetwin/shared/protocol/ack';
-import type { RunEnded, RunFailed, RunFrame, RunStartRequest, RunStarted } from '@kinetwin/shared/protocol/run-events';
+import type { RunControlState, RunEnded, RunFailed, RunFrame, RunKickRequest, RunKicked, RunSample, RunStartRequest, RunStarted } from '@kinetwin/shared/protocol/run-events';
 import { BehaviorSubject, type Observable, Subject } from 'rxjs';
 import { RUN_SOCKET_FACTORY } from './run-socket-factory';
 
@@ -25,6 +25,7 @@ export const LINK_LOST_MESSAGE = 'The live link to the server dropped, so the ru
 export const NO_ANSWER_MESSAGE = `The server did not answer within ${RUN_ACK_TIMEOUT_MS / 1000} s. Check that it is running and press Run again.`;
 export const SUPERSEDED_MESSAGE = 'A newer run request replaced this one.';
 export const STOPPED_BEFORE_START_MESSAGE = 'Stopped before the server started the run.';
+export const NOT_LIVE_MESSAGE = 'That run is no longer live: press Run to start a new one.';
 
 /** An event of one run, tagged with that run's id for routing. */
 interface RunScopedEvent {
@@ -152,6 +153,47 @@ export class RunSocket {
     return new Promise((resolve) => {
       const timer = setTimeout(() => resolve(errorAck(NO_ANSWER_MESSAGE)), RUN_ACK_TIMEOUT_MS);
       this.socket.emit('run:stop', { runId }, (ack) => {
+        clearTimeout(timer);
+        resolve(ack);
+      });
+    });
+  }
+
+  /** Pauses the live run; resolves with where it stands (state 'paused' and the last time sent). */
+  pause(runId: string): Promise<Ack<RunControlState>> {
+    return this.control<RunControlState>(runId, (reply) => this.socket.emit('run:pause', { runId }, reply));
+  }
+
+  /** Resumes a paused run from the time it was paused at. */
+  resume(runId: string): Promise<Ack<RunControlState>> {
+    return this.control<RunControlState>(runId, (reply) => this.socket.emit('run:resume', { runId }, reply));
+  }
+
+  /** Changes the playback speed of the live run: × real time, or 0 for as fast as possible. */
+  setSpeed(runId: string, speed: number): Promise<Ack<RunControlState>> {
+    return this.control<RunControlState>(runId, (reply) => this.socket.emit('run:speed', { runId, speed }, reply));
+  }
+
+  /** Pauses the live run and resolves with its recorded sample nearest to `time` (s). */
+  scrub(runId: string, time: number): Promise<Ack<RunSample>> {
+    return this.control<RunSample>(runId, (reply) => this.socket.emit('run:scrub', { runId, time }, reply));
+  }
+
+  /** Appends a kick at the twin's current time; resolves with the forcing term the run took. */
+  kick(runId: string, kick: RunKickRequest['kick']): Promise<Ack<RunKicked>> {
+    return this.control<RunKicked>(runId, (reply) => this.socket.emit('run:kick', { runId, kick }, reply));
+  }
+
+  /**
+   * Sends one control request of the run this client shows and resolves with the server's ack,
+   * or an error ack when the run is not the live one here or the server does not answer in time.
+   */
+  private control<T>(runId: string, send: (reply: (ack: Ack<T>) => void) => void): Promise<Ack<T>> {
+    // A run that ended (or was never ours) cannot be steered: say so without a round trip.
+    if (runId !== this.activeRunId) return Promise.resolve(errorAck<T>(NOT_LIVE_MESSAGE));
+    return new Promise((resolve) => {
+      const timer = setTimeout(() => resolve(errorAck<T>(NO_ANSWER_MESSAGE)), RUN_ACK_TIMEOUT_MS);
+      send((ack) => {
         clearTimeout(timer);
         resolve(ack);
       });
