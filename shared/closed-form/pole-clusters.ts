@@ -1,4 +1,5 @@
 import { type Complex } from './complex-number';
+import { valueAndSlope } from './polynomial-roots';
 
 /** A pole of a rational function, with how many times it repeats. */
 export interface PoleCluster {
@@ -155,18 +156,7 @@ function newtonOn(p: readonly number[], start: Complex): Complex {
   let y = start.im;
   const real = y === 0;
   for (let it = 0; it < SHARPEN_MAX_STEPS; it++) {
-    let pr = 0;
-    let pi = 0;
-    let dr = 0;
-    let di = 0;
-    for (let k = p.length - 1; k >= 0; k--) {
-      const ndr = dr * x - di * y + pr;
-      di = dr * y + di * x + pi;
-      dr = ndr;
-      const npr = pr * x - pi * y + p[k]!;
-      pi = pr * y + pi * x;
-      pr = npr;
-    }
+    const { pr, pi, dr, di } = valueAndSlope(p, x, y);
     const den = dr * dr + di * di;
     if (den === 0) break;
     const sx = (pr * dr + pi * di) / den;

@@ -166,7 +166,11 @@ function polish(c: readonly number[], x0: number, y0: number): Complex {
   return { re: x, im: y };
 }
 
-function valueAndSlope(c: readonly number[], x: number, y: number) {
+/**
+ * p(z) and p'(z) at z = x + iy by Horner's scheme, as real and imaginary parts.
+ * @param c ascending real coefficients
+ */
+export function valueAndSlope(c: readonly number[], x: number, y: number) {
   let pr = 0;
   let pi = 0;
   let dr = 0;
