@@ -1,3 +1,5 @@
+import type { Request, Response } from 'express';
+import type { z } from 'zod';
 import { eq, sql } from 'drizzle-orm';
 import { scenarios } from '../../drizzle/schema';
 import {
@@ -31,29 +33,23 @@ export function scenarioRoutes({ route }: GuardedRouter, { db }: LibraryDeps): v
     res.json(await listLibrary(db, userOf(req).teamId, queryOf(req, libraryQuerySchema)));
   });
 
-  route('post', '/', 'scenario.create', async (req, res) => {
-    const user = userOf(req);
-    const body = bodyOf(req, scenarioCreateSchema, 'The new scenario is not valid; nothing was saved.');
-    const document = scenarioFromBody(body.scenario, 'scenario');
-    const id = await db.transaction(async (tx) => {
-      const id = await insertScenario(tx, user.teamId, user.id, document, body.note || 'Created', body.tags);
-      await recordActivity(tx, { teamId: user.teamId, actorId: user.id, action: 'scenario.created', scenarioId: id, detail: { revision: 1 } });
-      return id;
-    });
-    res.status(201).json(await libraryDetail(db, user, id));
-  });
+  /** Create and import differ only in where the document sits, the default note and the activity. */
+  const createFrom =
+    <T extends { note?: string; tags: string[] }>(schema: z.ZodType<T>, refusal: string, field: 'scenario' | 'file', defaultNote: string, action: 'scenario.created' | 'scenario.imported') =>
+    async (req: Request, res: Response) => {
+      const user = userOf(req);
+      const body = bodyOf(req, schema, refusal);
+      const document = scenarioFromBody((body as Record<string, unknown>)[field], field);
+      const id = await db.transaction(async (tx) => {
+        const id = await insertScenario(tx, user.teamId, user.id, document, body.note || defaultNote, body.tags);
+        await recordActivity(tx, { teamId: user.teamId, actorId: user.id, action, scenarioId: id, detail: { revision: 1 } });
+        return id;
+      });
+      res.status(201).json(await libraryDetail(db, user, id));
+    };
 
-  route('post', '/import', 'scenario.create', async (req, res) => {
-    const user = userOf(req);
-    const body = bodyOf(req, scenarioImportSchema, 'The import is not valid; nothing was saved.');
-    const document = scenarioFromBody(body.file, 'file');
-    const id = await db.transaction(async (tx) => {
-      const id = await insertScenario(tx, user.teamId, user.id, document, body.note || 'Imported from a scenario file', body.tags);
-      await recordActivity(tx, { teamId: user.teamId, actorId: user.id, action: 'scenario.imported', scenarioId: id, detail: { revision: 1 } });
-      return id;
-    });
-    res.status(201).json(await libraryDetail(db, user, id));
-  });
+  route('post', '/', 'scenario.create', createFrom(scenarioCreateSchema, 'The new scenario is not valid; nothing was saved.', 'scenario', 'Created', 'scenario.created'));
+  route('post', '/import', 'scenario.create', createFrom(scenarioImportSchema, 'The import is not valid; nothing was saved.', 'file', 'Imported from a scenario file', 'scenario.imported'));
 
   route('get', '/:id', 'scenario.read', async (req, res) => {
     res.json(await libraryDetail(db, userOf(req), idParam(req, 'id', 'scenario id')));
