@@ -22,7 +22,7 @@ type DemoAccount = AppInfo['demoAccounts'][number];
   changeDetection: ChangeDetectionStrategy.OnPush,
   imports: [ReactiveFormsModule, MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, RouterLink],
   templateUrl: './sign-in.html',
-  styleUrl: './sign-in.css',
+  styleUrls: ['./auth-page.css', './sign-in.css'],
 })
 export class SignIn {
   private readonly session = inject(Session);

@@ -32,7 +32,7 @@ import { copyName, staleSaveOf } from '../scenario/stale-save';
           <mat-icon>save</mat-icon>
           {{ busy() ? 'Saving…' : 'Save revision' }}
         </button>
-        <p class="hint">Saves the edited fields as revision {{ (detail().revision ?? 0) + 1 }}, on top of revision {{ detail().revision }}.</p>
+        <p class="hint">Saves the edited fields as revision {{ detail().revision + 1 }}, on top of revision {{ detail().revision }}.</p>
       }
       @if (done(); as text) {
         <p data-test="save-done" class="hint" role="status">{{ text }}</p>
