@@ -18,7 +18,7 @@ describe('Laurent coefficients at s = 0 of delayed terms', () => {
   });
 
   it('expands e^(−as) to second order for a triple pole (1/s³ ↔ t²/2)', () => {
-    // s·e^(−as)/s³ = 1/s² − a/s + a²/2 − …
+    // s·e^(−as)/s³ = 1/s² − a/s + a²/2 − … ; the pair 1/s³ ↔ t²/2 is from Abramowitz & Stegun, Table 29.3 (from memory).
     const acc = emptyLaurent();
     addDelayedResidues(acc, [0, 0, 1], 0.3);
     expect(acc.coefficients).toEqual([expect.closeTo(0.045, 15), expect.closeTo(-0.3, 15), 1]);

@@ -35,7 +35,7 @@ describe('response evaluator', () => {
     if (!sampled.ok) throw new Error('refused');
     const r = sampled.value;
     expect(r.velocity[2]).toBe(0);
-    expect(r.velocity[3]).toBeCloseTo(2, 12); // Δθ′ = A/J at the impulse
+    expect(r.velocity[3]).toBeCloseTo(2, 12); // Δθ′ = A/J at the impulse (impulse–momentum, common practice)
   });
 
   it('samples 0 … horizon inclusive and allocates the arrays once', () => {

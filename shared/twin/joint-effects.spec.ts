@@ -9,6 +9,7 @@ describe('static joint effects', () => {
     expect(driveTorque(-0.7, Infinity, 0)).toBe(-0.7);
   });
 
+  // Pendulum load torque −m·g·l·sin(θ + offset) (common practice).
   it('pulls the centre of mass down: zero hanging, −m·g·l horizontal', () => {
     expect(gravityTorque(0, 3, 0) === 0).toBe(true);
     expect(gravityTorque(0, 3, Math.PI / 2)).toBe(-3);
