@@ -3,7 +3,7 @@ import { resolveNonlinear } from '../scenario/nonlinear-schema';
 import { inputTermSchema, MAX_INPUT_TERMS, type InputTerm, type Scenario } from '../scenario/scenario-schema';
 import { describeFieldErrors, parseWith, type Parsed } from '../validation/field-errors';
 import { firstPositive } from './event-bisection';
-import { forcingTermsOf, type ForcingTerms } from './forcing-terms';
+import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcing-terms';
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
 import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
@@ -18,8 +18,8 @@ export const TWIN_DEFAULTS: TwinSettings = {
   absoluteTolerance: 1e-10,
   /**
    * Longest stretch integrated in one odex call, s. Each restart costs odex its start-up work
-   * (measured: a 10 s run takes 4.6 ms with 0.25 s stretches, 3.5 ms with 1 s); live runs pass a
-   * short one so a kick lands close to what is on screen.
+   * (a quarter-second chunk made a 10 s run about a third slower than 1 s chunks when measured);
+   * live runs pass a short one so a kick lands close to what is on screen.
    */
   maxChunk: 1,
   /** A run stops when |angle| exceeds this, rad (a runaway joint, not a real move). */
@@ -133,9 +133,6 @@ export interface TwinRun {
  */
 const EXTRAPOLATION_COLUMNS = 6;
 
-/** odex has this setting; the project's declaration of odex (shared/types) leaves it out. */
-const withColumns = (solver: Solver) => solver as Solver & { maxExtrapolationColumns: number };
-
 /** Most points at which one integrator step is scanned for a friction event. */
 const MAX_EVENT_SCAN = 1000;
 
@@ -177,11 +174,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
 
   const inputs: InputTerm[] = scenario.inputs.slice();
   let forcing: ForcingTerms = forcingTermsOf(scenario);
-  /** True while every torque-channel term is constant between its edges (steps, pulses, impulses). */
-  const steadyTorque = (terms: readonly InputTerm[]) => terms.every((term) => term.channel !== 'torque' || term.shape === 'step' || term.shape === 'pulse' || term.shape === 'impulse');
-  let torqueSteady = steadyTorque(inputs);
-  const stateSize = continuousLoop ? 4 : 2;
-  const y: number[] = continuousLoop ? [scenario.initial.angle, scenario.initial.velocity, 0, -scenario.initial.angle] : [scenario.initial.angle, scenario.initial.velocity];
+  /** The terms acting from the last breakpoint reached until the next; rebuilt at each breakpoint. */
+  let stretch: ForcingStretch = forcing.stretchFrom(0, mergeEps);
+  // The loop states are integrated only where they act: the integral with ki ≠ 0, the filter with
+  // Tf > 0 (which keeps the integral slot too, the layout being fixed). Every state costs odex work.
+  const stateSize = !continuousLoop ? 2 : tf > 0 ? 4 : ki !== 0 ? 3 : 2;
+  const y: number[] = [scenario.initial.angle, scenario.initial.velocity, 0, -scenario.initial.angle].slice(0, stateSize);
   let time = 0;
   let started = false;
   let nextIndex = 0;
@@ -217,31 +215,31 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     if (Number.isNaN(onsets[effect]!)) onsets[effect] = t;
   };
 
-  const continuousRequest = (state: readonly number[], t: number, reference = forcing.reference(t)): number => {
+  const continuousRequest = (state: readonly number[], t: number, reference = stretch.reference(t)): number => {
     const error = reference - state[ANGLE]!;
     let derivative: number;
     if (tf > 0) derivative = ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
-    else derivative = onError ? forcing.referenceRate(t) - state[VELOCITY]! : -state[VELOCITY]!;
-    return n * (kp * error + ki * state[INTEGRAL]! + kd * derivative);
+    else derivative = onError ? stretch.referenceRate(t) - state[VELOCITY]! : -state[VELOCITY]!;
+    return n * (kp * error + (ki !== 0 ? ki * state[INTEGRAL]! : 0) + kd * derivative);
   };
 
   /** Drive torque asked for at the joint before limit and dead band, N·m. */
   const requestedTorque = (state: readonly number[], t: number): number => {
-    if (!closedLoop) return forcing.torque(t);
+    if (!closedLoop) return stretch.torque(t);
     return sampled ? heldRequest : continuousRequest(state, t);
   };
 
   /** Every torque on the joint except friction, N·m. */
   const netTorque = (state: readonly number[], t: number, requested: number): number =>
     driveTorque(requested, limit, nl.deadBand) +
-    (closedLoop ? forcing.torque(t) : 0) -
+    (closedLoop ? stretch.torque(t) : 0) -
     joint.damping * state[VELOCITY]! -
     joint.stiffness * state[ANGLE]! +
     gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset);
 
   const rates = new Array<number>(stateSize).fill(0);
   const rhs = (t: number, state: number[]): number[] => {
-    const reference = continuousLoop ? forcing.reference(t) : 0;
+    const reference = continuousLoop ? stretch.reference(t) : 0;
     const requested = continuousLoop ? continuousRequest(state, t, reference) : requestedTorque(state, t);
     const net = netTorque(state, t, requested);
     if (frictionOn && slip === 0) {
@@ -251,11 +249,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       rates[ANGLE] = state[VELOCITY]!;
       rates[VELOCITY] = (frictionOn ? net - slip * nl.coulombFriction : net) / joint.inertia;
     }
-    if (continuousLoop) {
+    if (stateSize > INTEGRAL) {
       const error = reference - state[ANGLE]!;
       const windingUp = nl.antiWindup && Math.abs(requested) > limit && error * requested > 0;
       rates[INTEGRAL] = windingUp ? 0 : error;
-      rates[FILTER] = tf > 0 ? ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf : 0;
+      if (stateSize > FILTER) rates[FILTER] = ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
     }
     return rates;
   };
@@ -288,7 +286,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     const measured = quantizeAngle(y[ANGLE]! + disturbance, nl.encoderCounts);
     if (nl.noiseStdDev > 0) markOnset(6, t);
     if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance) markOnset(5, t);
-    const request = sampledPidStep(pid, gains, forcing.reference(t), measured);
+    const request = sampledPidStep(pid, gains, stretch.reference(t), measured);
     heldRequest = nl.computeDelay ? pendingRequest : request;
     pendingRequest = request;
   };
@@ -297,10 +295,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const arriveAt = (t: number) => {
     time = t;
     const breakpoints = forcing.breakpoints;
+    const passed = breakpointIndex;
     while (breakpointIndex < breakpoints.length && breakpoints[breakpointIndex]! <= t + mergeEps) {
       applyJumpsAt(breakpoints[breakpointIndex]!, forcing);
       breakpointIndex++;
     }
+    if (breakpointIndex !== passed) stretch = forcing.stretchFrom(t, mergeEps);
     if (sampled && nextSample * period <= t + mergeEps) {
       takeSample(t);
       nextSample++;
@@ -331,23 +331,19 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       ? `angle left ±${o.angleBound} rad at t = ${t.toFixed(4)} s: the scenario runs away (unstable loop or unbounded forcing)`
       : `velocity left ±${o.velocityBound} rad/s at t = ${t.toFixed(4)} s: the scenario runs away (unstable loop or unbounded forcing)`;
 
-  // An output sample needs angle and velocity, and the loop states only where their gain is not
-  // zero (a zero gain multiplies them away); dense output is most of a run's cost.
-  const outputComponents = [ANGLE, VELOCITY, ...(continuousLoop && ki !== 0 ? [INTEGRAL] : []), ...(continuousLoop && tf > 0 ? [FILTER] : [])];
-
   const solver = new Solver(stateSize);
   solver.denseOutput = true;
   solver.relativeTolerance = o.relativeTolerance;
   solver.absoluteTolerance = o.absoluteTolerance;
   solver.maxSteps = o.maxStepsPerChunk;
-  withColumns(solver).maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
+  solver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
   // Without grid points or events inside a segment the dense interpolant is not needed; this
   // solver skips building it (a sampled loop at 1 ms with 1 ms output restarts 1000 times a second).
   const plainSolver = new Solver(stateSize);
   plainSolver.relativeTolerance = o.relativeTolerance;
   plainSolver.absoluteTolerance = o.absoluteTolerance;
   plainSolver.maxSteps = o.maxStepsPerChunk;
-  withColumns(plainSolver).maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
+  plainSolver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
 
   const stepState = new Array<number>(stateSize).fill(0);
   const eventState = new Array<number>(stateSize).fill(0);
@@ -401,7 +397,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (time >= target) break;
       const end = nextStop();
       const segmentStart = time;
-      if (frictionOn && slip === 0 && !continuousLoop && torqueSteady) {
+      if (frictionOn && slip === 0 && !continuousLoop && stretch.torqueConstant) {
         // Stuck, with a held (or no) controller torque and a torque channel constant between its
         // edges: nothing on the joint changes before `end`, so the state stays put exactly.
         while (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps) emit(gridTime(nextIndex), y);
@@ -459,7 +455,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         const lastInside = Math.min(stepEnd, end) - eps;
         while (nextIndex <= lastWanted && gridTime(nextIndex) <= x && gridTime(nextIndex) < lastInside) {
           const tk = gridTime(nextIndex);
-          for (const c of outputComponents) stepState[c] = dense(c, tk);
+          for (let c = 0; c < stateSize; c++) stepState[c] = dense(c, tk);
           emit(tk, stepState);
         }
         return halt === 'event' ? false : undefined;
@@ -539,8 +535,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     if (added.delay < time) added.delay = time;
     inputs.push(added);
     forcing = forcingTermsOf({ ...scenario, inputs });
-    torqueSteady = steadyTorque(inputs);
     if (started && added.delay === time) {
+      stretch = forcing.stretchFrom(time, mergeEps);
       // Edges at `time` of the earlier terms were applied on arrival; only the new one's remains.
       applyJumpsAt(time, forcingTermsOf({ ...scenario, inputs: [added] }));
       if (frictionOn) chooseFrictionRegime();

@@ -30,6 +30,8 @@ declare module 'odex' {
     initialStepSize: number;
     maxStepSize: number;
     denseOutput: boolean;
+    /** Most columns of the extrapolation table (odex's default 9). */
+    maxExtrapolationColumns: number;
     relativeTolerance: number | number[];
     absoluteTolerance: number | number[];
     solve(f: Derivative, x: number, y0: number[], xEnd: number, solOut?: OutputFunction): SolveResult;
