@@ -348,6 +348,17 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const stepState = new Array<number>(stateSize).fill(0);
   const eventState = new Array<number>(stateSize).fill(0);
 
+  /**
+   * Whether a slide may have come to rest inside a stretch that started with acceleration
+   * `startAcceleration`: the velocity left the slide's direction by the end, or the acceleration
+   * turned (its sign at the ends differs), so the velocity may have dipped through zero and back.
+   */
+  const maySlideToRest = (startAcceleration: number, end: readonly number[], t: number) => {
+    if (slip * end[VELOCITY]! <= 0) return true;
+    const endAcceleration = rhs(t, end as number[])[VELOCITY]!;
+    return startAcceleration * endAcceleration <= 0;
+  };
+
   function advance(until: number): TwinTrace {
     const target = Math.min(until, horizon);
     // The last odex call may end up to one chunk past the target; its grid points are kept.
@@ -387,39 +398,17 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       while (nextIndex <= lastWanted && gridTime(nextIndex) <= upTo + eps) emit(gridTime(nextIndex), y);
     };
 
-    if (!started) {
-      started = true;
-      arriveAt(0);
-      if (outOfBounds(y)) stopAt(0, boundMessage(y, 0));
-    }
-    while (!done && nextIndex <= lastIndex) {
-      emitFromState(time);
-      if (time >= target) break;
-      const end = nextStop();
-      const segmentStart = time;
-      if (frictionOn && slip === 0 && !continuousLoop && stretch.torqueConstant) {
-        // Stuck, with a held (or no) controller torque and a torque channel constant between its
-        // edges: nothing on the joint changes before `end`, so the state stays put exactly.
-        while (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps) emit(gridTime(nextIndex), y);
-        arriveAt(end);
-        if (outOfBounds(y)) {
-          stopAt(time, boundMessage(y, time));
-          break;
-        }
-        if (time >= horizon) {
-          emitFromState(horizon);
-          done = true;
-        }
-        continue;
-      }
-      const needDense = frictionOn || (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps);
+    /**
+     * One odex call over [start, end]: emits the grid points inside it and stops at a bound or at the
+     * first friction event (found on the dense output, which `active` must provide for an event).
+     */
+    const integrateStretch = (active: Solver, start: number, end: number) => {
       let halt: 'bound' | 'event' | null = null;
       let eventTime = end;
-      const active = needDense ? solver : plainSolver;
       // Start with the last accepted step: restarting from odex's default 1e-4 s at every chunk
       // costs more steps than the chunk itself needs.
-      active.initialStepSize = Math.min(lastStep, end - segmentStart);
-      const result = active.solve(rhs, segmentStart, y.slice(), end, (step, xOld, x, state, dense) => {
+      active.initialStepSize = Math.min(lastStep, end - start);
+      const result = active.solve(rhs, start, y.slice(), end, (step, xOld, x, state, dense) => {
         if (step === 1) return;
         lastStep = x - xOld;
         if (outOfBounds(state)) {
@@ -460,6 +449,46 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         }
         return halt === 'event' ? false : undefined;
       });
+      return { result, halt: halt as 'bound' | 'event' | null, eventTime };
+    };
+
+    if (!started) {
+      started = true;
+      arriveAt(0);
+      if (outOfBounds(y)) stopAt(0, boundMessage(y, 0));
+    }
+    while (!done && nextIndex <= lastIndex) {
+      emitFromState(time);
+      if (time >= target) break;
+      const end = nextStop();
+      const segmentStart = time;
+      if (frictionOn && slip === 0 && !continuousLoop && stretch.torqueConstant) {
+        // Stuck, with a held (or no) controller torque and a torque channel constant between its
+        // edges: nothing on the joint changes before `end`, so the state stays put exactly.
+        while (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps) emit(gridTime(nextIndex), y);
+        arriveAt(end);
+        if (outOfBounds(y)) {
+          stopAt(time, boundMessage(y, time));
+          break;
+        }
+        if (time >= horizon) {
+          emitFromState(horizon);
+          done = true;
+        }
+        continue;
+      }
+      const gridInside = nextIndex <= lastWanted && gridTime(nextIndex) < end - eps;
+      // Without grid points inside, the interpolant is needed only for a friction event, and a
+      // slide can only end inside if the velocity reaches zero: try the cheaper solver first and
+      // redo the stretch with dense output when the end state says the slide may have ended.
+      // (A sampled loop restarts at every sample, so this is most of its stretches.)
+      const tryPlain = !gridInside && (!frictionOn || slip !== 0);
+      const startAcceleration = tryPlain && frictionOn ? rhs(segmentStart, y)[VELOCITY]! : 0;
+      let segment = integrateStretch(tryPlain ? plainSolver : solver, segmentStart, end);
+      if (tryPlain && frictionOn && segment.halt === null && segment.result.outcome === Outcome.Converged && maySlideToRest(startAcceleration, segment.result.y, end)) {
+        segment = integrateStretch(solver, segmentStart, end);
+      }
+      const { result, halt, eventTime } = segment;
       if (halt === 'bound') {
         stopAt(result.xEnd, boundMessage(result.y, result.xEnd));
         break;
