@@ -131,7 +131,7 @@ export interface TwinRun {
  * sampled loop solves once per sample: 6 columns cut that cost by a fifth in our measurements
  * while the steps the twin takes (≤ one chunk) never need a higher order.
  */
-const EXTRAPOLATION_COLUMNS = 6;
+export const EXTRAPOLATION_COLUMNS = 6;
 
 /** Most points at which one integrator step is scanned for a friction event. */
 const MAX_EVENT_SCAN = 1000;

@@ -2,7 +2,8 @@ import { setImmediate as yieldToLoop } from 'node:timers/promises';
 import { evaluateClosedForm, solveClosedForm } from '../../shared/closed-form';
 import { parseScenario } from '../../shared/scenario/parse-scenario';
 import type { Scenario, ScenarioInput } from '../../shared/scenario/scenario-schema';
-import { simulateTwin } from '../../shared/twin/twin-run';
+import { Solver } from 'odex';
+import { EXTRAPOLATION_COLUMNS, simulateTwin, TWIN_DEFAULTS } from '../../shared/twin/twin-run';
 import type { BenchResult } from './bench-result';
 
 /** Runs discarded before timing (JIT warm-up), and runs timed per figure. */
@@ -63,6 +64,37 @@ async function medianMs(work: () => void): Promise<number> {
   return times[Math.floor(times.length / 2)]!;
 }
 
+/** Restarts in a 10 s run of a 1 ms sampled loop: the twin restarts odex at every sample. */
+const SAMPLED_RESTARTS = 10_000;
+
+/**
+ * The floor under a 1 ms sampled loop: 10,000 bare odex calls, each over one 1 ms stretch of the
+ * bench joint with gravity under a held torque, set up as the twin sets up its solver (default
+ * tolerances, its extrapolation columns, the stretch as first step) with none of the twin's own code.
+ */
+function bareRestarts(): void {
+  const solver = new Solver(2);
+  solver.relativeTolerance = TWIN_DEFAULTS.relativeTolerance;
+  solver.absoluteTolerance = TWIN_DEFAULTS.absoluteTolerance;
+  solver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
+  solver.initialStepSize = 0.001;
+  const { inertia, damping } = linearLoad.joint;
+  const weightMoment = 0.3 * 9.80665 * 0.15;
+  const rates = [0, 0];
+  let held = 0;
+  const rhs = (_t: number, y: number[]) => {
+    rates[0] = y[1]!;
+    rates[1] = (held - damping * y[1]! - weightMoment * Math.cos(y[0]!)) / inertia;
+    return rates;
+  };
+  let y = [0, 0];
+  for (let k = 0; k < SAMPLED_RESTARTS; k++) {
+    // A PD law on the sample keeps the joint moving the way a loop would.
+    held = 6 * (0.5 - y[0]!) - 0.35 * y[1]!;
+    y = solver.solve(rhs, k * 0.001, y, (k + 1) * 0.001).y;
+  }
+}
+
 /**
  * Twin benchmarks: median time of one 10 s PID run at 1 ms output, linear, with the continuous
  * effects on, and with every effect on; and the ratio of the linear twin's time to the closed
@@ -88,6 +120,12 @@ export async function benchTwin(): Promise<BenchResult[]> {
     unit: 'ms',
     runs,
     goal: '< 15 ms',
+  });
+  results.push({
+    name: `bare odex: ${SAMPLED_RESTARTS.toLocaleString('en')} restarts over 1 ms stretches, no twin code (the floor under the 1 ms sampled loop)`,
+    median: await medianMs(bareRestarts),
+    unit: 'ms',
+    runs,
   });
   const closedForm = await medianMs(() => {
     const solved = solveClosedForm(linear);
