@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { readConfig } from './config';
+import { CHECK_QUEUE_SIZE, CHECK_TIME_LIMIT_MS } from './checks/check-limits';
+import { defaultCheckWorkers, MAX_CHECK_WORKERS, readConfig } from './config';
 
 const base = { DATABASE_URL: 'postgres://kinetwin@127.0.0.1:54329/kinetwin' };
 
@@ -29,5 +30,32 @@ describe('readConfig: mail and link settings', () => {
   it('configures SMTP from MAIL_TRANSPORT and SMTP_URL', () => {
     const read = readConfig({ ...base, MAIL_TRANSPORT: 'smtp', SMTP_URL: 'smtp://mail.example.test:587' });
     expect(read).toMatchObject({ ok: true, config: { mailTransport: 'smtp', smtpUrl: 'smtp://mail.example.test:587' } });
+  });
+});
+
+describe('readConfig: the checks pool', () => {
+  it('leaves one core to the event loop and takes the documented queue and time limit by default', () => {
+    const read = readConfig(base);
+    expect(read).toMatchObject({ ok: true, config: { checkWorkers: defaultCheckWorkers(), checkQueueSize: CHECK_QUEUE_SIZE, checkTimeLimitMs: CHECK_TIME_LIMIT_MS } });
+    expect(defaultCheckWorkers(8)).toBe(7);
+    expect(defaultCheckWorkers(1)).toBe(1);
+  });
+
+  it('reads KINETWIN_CHECK_WORKERS, KINETWIN_CHECK_QUEUE and KINETWIN_CHECK_TIME_LIMIT_MS', () => {
+    const read = readConfig({ ...base, KINETWIN_CHECK_WORKERS: '3', KINETWIN_CHECK_QUEUE: '0', KINETWIN_CHECK_TIME_LIMIT_MS: '500' });
+    expect(read).toMatchObject({ ok: true, config: { checkWorkers: 3, checkQueueSize: 0, checkTimeLimitMs: 500 } });
+  });
+
+  it.each([
+    [{ KINETWIN_CHECK_WORKERS: '0' }, 'KINETWIN_CHECK_WORKERS must be at least 1'],
+    [{ KINETWIN_CHECK_WORKERS: 'four' }, 'KINETWIN_CHECK_WORKERS must be a whole number'],
+    [{ KINETWIN_CHECK_WORKERS: '1.5' }, 'KINETWIN_CHECK_WORKERS must be a whole number'],
+    [{ KINETWIN_CHECK_WORKERS: String(MAX_CHECK_WORKERS + 1) }, `KINETWIN_CHECK_WORKERS must be at most ${MAX_CHECK_WORKERS}`],
+    [{ KINETWIN_CHECK_QUEUE: '-1' }, 'KINETWIN_CHECK_QUEUE must be zero or more'],
+    [{ KINETWIN_CHECK_TIME_LIMIT_MS: '50' }, 'KINETWIN_CHECK_TIME_LIMIT_MS must be at least 100'],
+  ])('refuses %o in one line naming the setting', (env, message) => {
+    const read = readConfig({ ...base, ...env });
+    expect(read.ok).toBe(false);
+    if (!read.ok) expect(read.message).toContain(message);
   });
 });

@@ -1,5 +1,7 @@
+import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 import { describeFieldErrors, parseWith } from '../shared/validation/field-errors';
+import { CHECK_QUEUE_SIZE, CHECK_TIME_LIMIT_MS } from './checks/check-limits';
 
 /** Everything the server reads from its environment; nothing else reads process.env. */
 export interface ServerConfig {
@@ -30,6 +32,20 @@ export interface ServerConfig {
   appBaseUrlConfigured: boolean;
   invitationTtlHours: number;
   passwordResetTtlMinutes: number;
+  /** Worker threads that run the bench's checks (POST /api/checks) off the event loop. */
+  checkWorkers: number;
+  /** Checks jobs that may wait for a free worker; one more is refused with 503. */
+  checkQueueSize: number;
+  /** Longest one checks job may take, waiting included, ms; past it the worker is stopped and the answer is 504. */
+  checkTimeLimitMs: number;
+}
+
+/** Most check workers accepted: beyond the cores of any machine this runs on, more threads only add memory. */
+export const MAX_CHECK_WORKERS = 64;
+
+/** One core stays with the event loop (HTTP, sockets, live runs); the rest run checks. */
+export function defaultCheckWorkers(cores = availableParallelism()): number {
+  return Math.max(1, cores - 1);
 }
 
 const envSchema = z.object({
@@ -52,6 +68,24 @@ const envSchema = z.object({
   APP_BASE_URL: z.url({ protocol: /^https?$/, error: 'APP_BASE_URL must be an http:// or https:// address' }).optional(),
   INVITATION_TTL_HOURS: z.coerce.number().positive().max(24 * 30).default(72),
   PASSWORD_RESET_TTL_MINUTES: z.coerce.number().positive().max(24 * 60).default(60),
+  KINETWIN_CHECK_WORKERS: z.coerce
+    .number({ error: 'KINETWIN_CHECK_WORKERS must be a whole number' })
+    .int({ error: 'KINETWIN_CHECK_WORKERS must be a whole number' })
+    .min(1, { error: 'KINETWIN_CHECK_WORKERS must be at least 1' })
+    .max(MAX_CHECK_WORKERS, { error: `KINETWIN_CHECK_WORKERS must be at most ${MAX_CHECK_WORKERS}` })
+    .optional(),
+  KINETWIN_CHECK_QUEUE: z.coerce
+    .number({ error: 'KINETWIN_CHECK_QUEUE must be a whole number' })
+    .int({ error: 'KINETWIN_CHECK_QUEUE must be a whole number' })
+    .min(0, { error: 'KINETWIN_CHECK_QUEUE must be zero or more' })
+    .max(1000, { error: 'KINETWIN_CHECK_QUEUE must be at most 1000' })
+    .default(CHECK_QUEUE_SIZE),
+  KINETWIN_CHECK_TIME_LIMIT_MS: z.coerce
+    .number({ error: 'KINETWIN_CHECK_TIME_LIMIT_MS must be a whole number of milliseconds' })
+    .int({ error: 'KINETWIN_CHECK_TIME_LIMIT_MS must be a whole number of milliseconds' })
+    .min(100, { error: 'KINETWIN_CHECK_TIME_LIMIT_MS must be at least 100' })
+    .max(3_600_000, { error: 'KINETWIN_CHECK_TIME_LIMIT_MS must be at most 3600000 (one hour)' })
+    .default(CHECK_TIME_LIMIT_MS),
 });
 
 /** Parses the environment; on error returns one line naming each bad variable. */
@@ -90,6 +124,9 @@ export function readConfig(env: Record<string, string | undefined>): { ok: true;
       appBaseUrlConfigured: e.APP_BASE_URL !== undefined,
       invitationTtlHours: e.INVITATION_TTL_HOURS,
       passwordResetTtlMinutes: e.PASSWORD_RESET_TTL_MINUTES,
+      checkWorkers: e.KINETWIN_CHECK_WORKERS ?? defaultCheckWorkers(),
+      checkQueueSize: e.KINETWIN_CHECK_QUEUE,
+      checkTimeLimitMs: e.KINETWIN_CHECK_TIME_LIMIT_MS,
     },
   };
 }

@@ -15,6 +15,8 @@ import { handshakeOriginAllowed, requireCsrfToken, requireSameOrigin } from './a
 import { createPassport } from './auth/passport-setup';
 import { passwordResetRoutes } from './auth/password-reset-routes';
 import { RouteTable, type RouteRecord } from './auth/route-table';
+import { createCheckPool } from './checks/check-pool';
+import { checkRoutes } from './checks/check-routes';
 import type { ServerConfig } from './config';
 import type { DatabaseHandle } from './db/database';
 import { DEMO_ACCOUNTS } from './db/seed-demo';
@@ -37,9 +39,11 @@ export interface KinetwinServer {
   http: Server;
   io: SocketServer;
   liveRuns(): number;
+  /** Worker threads of the checks pool alive now (0 until the first check). */
+  checkThreads(): number;
   /** Every /api route with the access it requires (the role-matrix test walks these). */
   routes: readonly RouteRecord[];
-  /** Stops accepting connections, ends live runs and closes sockets; the database stays open. */
+  /** Stops accepting connections, ends live runs, closes sockets and ends the check workers; the database stays open. */
   close(): Promise<void>;
 }
 
@@ -112,6 +116,7 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
     return address && typeof address === 'object' ? `http://${config.host}:${address.port}` : config.appBaseUrl;
   };
   const deps: LibraryDeps = { db: database.db, mailer: createMailer(transport, config.mailFrom, logger), appBaseUrl: linkBase };
+  const checkPool = createCheckPool({ workers: config.checkWorkers, queueSize: config.checkQueueSize, timeLimitMs: config.checkTimeLimitMs, logger });
   const table = new RouteTable();
   const mount = (path: string, ...groups: ((router: ReturnType<RouteTable['under']>) => void)[]) => {
     const guarded = table.under(`/api${path}`);
@@ -145,6 +150,7 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
     (r) => teamActivityRoutes(r, deps),
   );
   mount('/dev', (r) => mailboxRoutes(r, database.db));
+  mount('/checks', (r) => checkRoutes(r, { pool: checkPool }));
   api.use(apiNotFound);
   app.use('/api', api);
 
@@ -179,12 +185,17 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
     http,
     io,
     liveRuns: runs.liveRuns,
+    checkThreads: checkPool.threads,
     routes: table.routes,
-    close: () =>
-      new Promise<void>((resolve) => {
-        // io.close() disconnects every socket (ending its runs) and closes the HTTP server.
-        io.close(() => resolve());
-        http.closeAllConnections();
-      }),
+    close: async () => {
+      await Promise.all([
+        new Promise<void>((resolve) => {
+          // io.close() disconnects every socket (ending its runs) and closes the HTTP server.
+          io.close(() => resolve());
+          http.closeAllConnections();
+        }),
+        checkPool.close(),
+      ]);
+    },
   };
 }

@@ -22,6 +22,7 @@ export const PERMISSIONS = {
   'team.read': ['viewer', 'engineer', 'lead', 'admin'],
   'team.manage': ['admin'],
   'mailbox.read': ['admin'],
+  'bench.check': ['viewer', 'engineer', 'lead', 'admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof PERMISSIONS;
@@ -51,4 +52,5 @@ export const ACTION_WORDS: Record<Action, string> = {
   'team.read': 'see the team',
   'team.manage': 'manage team members and invitations',
   'mailbox.read': 'read the dev mailbox',
+  'bench.check': 'run checks on the bench',
 };

@@ -67,6 +67,7 @@ function callsFor(member: TestMember, f: Fixture): Record<string, Call> {
     'delete /api/team/invitations/:invitationId': { path: `/api/team/invitations/${f.invitationId}` },
     'get /api/team/activity': { path: '/api/team/activity' },
     'get /api/dev/mailbox': { path: '/api/dev/mailbox' },
+    'post /api/checks': { path: '/api/checks', body: { scenario: demoScenarioDocument() } },
   };
 }
 

@@ -17,6 +17,7 @@ import { ScenarioApi } from '../core/scenario-api';
 import { AngleChart } from './angle-chart';
 import { type ChartFeed, appendToChartFeed, emptyChartFeed, joinBatches } from './chart-feed';
 import { chartBatchOfFrame, chartSpacing, latestAngle, latestTime } from './chart-points';
+import { ChecksPanel } from './checks-panel';
 import { type ClosedFormEngine, loadClosedFormEngine } from './closed-form-engine';
 import { ClosedFormPanel } from './closed-form-panel';
 import { type ClosedFormView, closedFormView } from './closed-form-view';
@@ -71,13 +72,13 @@ const LINK_TEXT: Record<RunLink, string> = {
 
 /**
  * One scenario on the bench: its quantities and their unsaved edits, the live twin in 3D, the
- * angle chart with the closed form over it, and the closed-form panel.
+ * angle chart with the closed form over it, the checks panel, and the closed-form panel.
  */
 @Component({
   selector: 'kt-bench',
   changeDetection: ChangeDetectionStrategy.OnPush,
   providers: [RunSocket],
-  imports: [AngleChart, ClosedFormPanel, JointView, KickPanel, MatButtonModule, MatIconModule, MatSliderModule, RouterLink, SaveRevisionPanel, TuningForm],
+  imports: [AngleChart, ChecksPanel, ClosedFormPanel, JointView, KickPanel, MatButtonModule, MatIconModule, MatSliderModule, RouterLink, SaveRevisionPanel, TuningForm],
   templateUrl: './bench.html',
   styleUrl: './bench.css',
 })
