@@ -133,7 +133,7 @@ describe('bench in Chromium', () => {
   it('stops a run on request', async () => {
     const page = await browser.context.newPage();
     await signInAsEngineer(page);
-    await page.locator('[data-test=scenario-row]', { hasText: 'Elbow' }).locator('a[data-test=open-scenario]').click();
+    await page.locator('[data-test=scenario-row]', { hasText: 'Elbow on its spring' }).locator('a[data-test=open-scenario]').click();
     // Software WebGL compiles the 3D view's shaders on the page's thread: let that finish first.
     await page.locator('[data-test=joint-view] canvas').waitFor({ timeout: 20_000 });
     await page.click('[data-test=run]');

@@ -12,7 +12,7 @@ const engineer = account('engineer');
 const lead = account('lead');
 const viewer = account('viewer');
 
-// The other browser tests drive "Wrist pitch" and "Elbow"; this one owns the shoulder demo.
+// The other browser tests drive "Wrist pitch" and "Elbow on its spring"; this one owns the shoulder demo.
 // Every run adds revisions to it, so nothing below depends on how many it already has.
 const SCENARIO = 'Shoulder hold: payload bump';
 // A marker unique to this run, so a second run against the same database finds its own notes.
