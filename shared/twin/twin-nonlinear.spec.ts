@@ -73,13 +73,19 @@ describe('Coulomb friction with stiction', () => {
     expect(effects.map((e) => e.effect)).toEqual(['stiction', 'friction']);
   });
 
-  it('lets a spring–mass ring down linearly by 2τc/k per half cycle and stop where k·|θ| ≤ τs', () => {
-    // Den Hartog, Mechanical Vibrations, Coulomb damping: each half cycle of period π/ω loses
-    // 2τc/k of amplitude (from memory). 0.105 → −0.085 → 0.065 → −0.045 → 0.025 → −0.005, where
-    // the spring torque 0.5 N·m is below the 1 N·m breakaway: stuck from t = 5π/10 s on.
+  // Den Hartog, Mechanical Vibrations, Coulomb damping: each half cycle of period π/ω loses 2τc/k
+  // of amplitude (from memory). 0.105 → −0.085 → 0.065 → −0.045 → 0.025 → −0.005, where the spring
+  // torque 0.5 N·m is below the 1 N·m breakaway: stuck from t = 5π/10 s on. The second case runs
+  // it under a sampled loop with zero gains and output at the sample instants: every stretch is
+  // one sample long with no grid point inside, and each slide ends inside one, which the twin
+  // must still find.
+  it.each([
+    ['in open loop', { mode: 'open-loop' }],
+    ['with the integrator restarted at every sample', { mode: 'pid', kp: 0, ki: 0, kd: 0, samplePeriod: 0.0005 }],
+  ] as const)('lets a spring–mass ring down linearly by 2τc/k per half cycle and stop where k·|θ| ≤ τs, %s', (_case, controller) => {
     const s = buildScenario({
       joint: { inertia: 1, damping: 0, stiffness: 100 },
-      controller: { mode: 'open-loop' },
+      controller,
       inputs: [],
       initial: { angle: 0.105, velocity: 0 },
       horizon: 3,
@@ -97,28 +103,6 @@ describe('Coulomb friction with stiction', () => {
       expect(samples.sticking[i]).toBe(1);
     }
     expect(samples.sticking.slice(0, stopIndex - 1).every((f) => f === 0)).toBe(true);
-  });
-  it('finds the same ring-down when a sampled loop restarts the integrator at every sample', () => {
-    // The Den Hartog ring-down again, under a sampled controller with zero gains and output at the
-    // sample instants: every stretch is one sample long with no grid point inside, and each slide
-    // ends inside one, which the twin must still find (Den Hartog, Coulomb damping, from memory).
-    const s = buildScenario({
-      joint: { inertia: 1, damping: 0, stiffness: 100 },
-      controller: { mode: 'pid', kp: 0, ki: 0, kd: 0, samplePeriod: 0.0005 },
-      inputs: [],
-      initial: { angle: 0.105, velocity: 0 },
-      horizon: 3,
-      nonlinear: { coulombFriction: 1 },
-    });
-    const { samples } = simulateTwin(s, { dt: 0.0005 });
-    const half = Math.PI / 10;
-    [0.105, -0.085, 0.065, -0.045, 0.025, -0.005].forEach((amplitude, k) => {
-      const i = Math.round((k * half) / 0.0005);
-      expect(samples.angle[i]).toBeCloseTo(amplitude, 6);
-    });
-    const stopIndex = Math.ceil((5 * half) / 0.0005);
-    for (let i = stopIndex; i < samples.t.length; i++) expect(samples.angle[i]).toBeCloseTo(-0.005, 9);
-    expect(switches(samples.sticking)).toBe(1);
   });
 });
 

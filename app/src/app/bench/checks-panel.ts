@@ -30,7 +30,7 @@ type ChecksState =
   imports: [MatButtonModule, MatIconModule, MatProgressBarModule],
   host: { 'data-test': 'checks-panel' },
   templateUrl: './checks-panel.html',
-  styleUrl: './checks-panel.css',
+  styleUrls: ['./bench-panel.css', './checks-panel.css'],
 })
 export class ChecksPanel {
   private readonly checks = inject(ChecksApi);

@@ -14,7 +14,7 @@ import { KatexExpression } from './katex-expression';
   imports: [KatexExpression],
   host: { 'data-test': 'closed-form-panel' },
   templateUrl: './closed-form-panel.html',
-  styleUrl: './closed-form-panel.css',
+  styleUrls: ['./bench-panel.css', './closed-form-panel.css'],
 })
 export class ClosedFormPanel {
   readonly view = input.required<ClosedFormView>();

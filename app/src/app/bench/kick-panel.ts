@@ -65,7 +65,7 @@ export interface KickEntry {
       </ol>
     }
   `,
-  styleUrl: './kick-panel.css',
+  styleUrls: ['./bench-panel.css', './kick-panel.css'],
 })
 export class KickPanel {
   /** Whether a run is live, so a kick can land. */
