@@ -70,6 +70,13 @@ export interface RunKicked {
 /** Most recorded samples a live run keeps for scrubbing; older ones are dropped first. */
 export const MAX_SCRUB_HISTORY = 250_000;
 
+/**
+ * Events one connection may send per second (starts, controls, scrubs and kicks together); the
+ * rest are refused with an error until the second is over. Dragging the scrub slider sends a few
+ * dozen a second at most.
+ */
+export const MAX_RUN_EVENTS_PER_SECOND = 60;
+
 export type RunEndReason = 'finished' | 'stopped' | 'bound';
 
 export interface RunEnded {

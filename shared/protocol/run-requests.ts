@@ -35,13 +35,17 @@ export type RunSpeedRequest = z.infer<typeof runSpeedSchema>;
 export const runScrubSchema = z.strictObject({ runId, time: z.number({ error: 'time must be a finite number' }).nonnegative({ error: 'time must be zero or more' }) });
 export type RunScrubRequest = z.infer<typeof runScrubSchema>;
 
-/** Kicks are the quick disturbances an engineer pokes a live joint with: impulses and steps. */
+/**
+ * Kicks are the quick disturbances an engineer pokes a live joint with: impulses and steps, at the
+ * twin's current time or, with `delay`, at a later simulated time (never one already past).
+ */
 export const runKickSchema = z.strictObject({
   runId,
   kick: z.strictObject({
     channel: z.enum(['reference', 'torque'], { error: 'channel must be "reference" or "torque"' }),
     shape: z.enum(['impulse', 'step'], { error: 'a kick is an "impulse" (torque only) or a "step"' }),
     amplitude: z.number({ error: 'amplitude must be a finite number' }),
+    delay: z.number({ error: 'delay must be a finite number of seconds' }).nonnegative({ error: 'delay must be zero or more' }).optional(),
   }),
 });
 export type RunKickRequest = z.infer<typeof runKickSchema>;

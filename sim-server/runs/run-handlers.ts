@@ -19,6 +19,7 @@ import type { AuthUser } from '../auth/user-store';
 import type { Database } from '../db/database';
 import type { Logger } from '../logging/logger';
 import { findTeamScenario } from '../scenarios/scenario-store';
+import { limitRunEvents } from './event-rate-limit';
 import { startLiveRun, type LiveRun } from './live-run';
 
 export type RunNamespace = Namespace<ClientToServerEvents, ServerToClientEvents, InterServerEvents, SocketData>;
@@ -32,7 +33,8 @@ export interface RunHandlerDeps {
 
 /**
  * Live runs over socket.io: one run per connection at a time (a new start replaces the old run),
- * every payload validated, every failure answered with field errors and never thrown.
+ * every payload validated, every failure answered with field errors and never thrown, and at most
+ * MAX_RUN_EVENTS_PER_SECOND events a second taken from one connection.
  */
 export function registerRunHandlers(nsp: RunNamespace, { db, logger, maxLiveRuns }: RunHandlerDeps): { liveRuns(): number } {
   let live = 0;
@@ -52,6 +54,7 @@ export function registerRunHandlers(nsp: RunNamespace, { db, logger, maxLiveRuns
       socket.emit('run:error', { runId, errors });
       replyTo<T>(ack)({ status: 'error', errors });
     };
+    limitRunEvents(socket, (errors) => socket.emit('run:error', { runId: current?.runId ?? null, errors }));
 
     socket.on('run:start', async (request, ack) => {
       try {

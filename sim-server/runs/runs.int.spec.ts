@@ -1,6 +1,15 @@
 import { io, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { RUN_NAMESPACE, type ClientToServerEvents, type RunEnded, type RunFrame, type RunStartRequest, type ServerToClientEvents } from '../../shared/protocol/run-events';
+import {
+  MAX_RUN_EVENTS_PER_SECOND,
+  RUN_NAMESPACE,
+  type ClientToServerEvents,
+  type RunEnded,
+  type RunFailed,
+  type RunFrame,
+  type RunStartRequest,
+  type ServerToClientEvents,
+} from '../../shared/protocol/run-events';
 import type { Ack } from '../../shared/protocol/ack';
 import { DEMO_ACCOUNTS } from '../db/seed-demo';
 import { readJson, signIn, startTestServer, type TestServer } from '../testing/test-server';
@@ -205,6 +214,76 @@ describe('live runs over real sockets', () => {
       const reply = await control(client, event, { runId: 'no-such-run', time: 0, speed: 1, kick: { channel: 'torque', shape: 'step', amplitude: 1 } });
       expect(reply, event).toMatchObject({ status: 'error' });
     }
+  });
+
+  it('refuses bad nonlinear values, a negative sample period and zero encoder counts, naming each field', async () => {
+    const client = connect();
+    const inline = (controller: object, nonlinear: object) => ({
+      scenario: { kind: 'kinetwin/scenario', version: 1, name: 'bad effects', joint: { inertia: 1, damping: 0.1, stiffness: 0 }, controller, nonlinear, horizon: 1 },
+    });
+    const sampled = { mode: 'pid', kp: 1, samplePeriod: 0.001 };
+    const cases: [object, string, string][] = [
+      [inline(sampled, { torqueLimit: -1 }), 'scenario.nonlinear.torqueLimit', 'torqueLimit must be positive'],
+      [inline(sampled, { coulombFriction: 0.5, staticFriction: 0.2 }), 'scenario.nonlinear.staticFriction', 'coulombFriction'],
+      [inline({ mode: 'pid', kp: 1, samplePeriod: -0.001 }, {}), 'scenario.controller.samplePeriod', 'samplePeriod must be positive'],
+      [inline(sampled, { encoderCounts: 0 }), 'scenario.nonlinear.encoderCounts', 'encoderCounts must be positive'],
+      [inline(sampled, { noiseStdDev: Number.NaN }), 'scenario.nonlinear.noiseStdDev', 'noiseStdDev'],
+    ];
+    for (const [request, field, words] of cases) {
+      const ack = await start(client, request);
+      expect(ack.status, field).toBe('error');
+      if (ack.status === 'error') expect(ack.errors, field).toContainEqual({ field, message: expect.stringContaining(words) });
+    }
+    // The connection still serves a good run afterwards.
+    const done = collect(client);
+    expect((await start(client, { scenarioId: scenarioIds[0], speed: 0 })).status).toBe('ok');
+    expect((await done).end.reason).toBe('finished');
+  });
+
+  it('refuses a kick at a simulated time already past, and takes one set for later', async () => {
+    const client = connect();
+    const ack = await start(client, { scenarioId: scenarioIds[0], speed: 1 });
+    if (ack.status !== 'ok') throw new Error(JSON.stringify(ack));
+    const runId = ack.data.runId;
+    await new Promise((r) => setTimeout(r, 300));
+    const paused = await control<{ simulatedTime: number }>(client, 'run:pause', { runId });
+    if (paused.status !== 'ok') throw new Error(JSON.stringify(paused));
+    const past = await control(client, 'run:kick', { runId, kick: { channel: 'torque', shape: 'step', amplitude: 0.1, delay: 0.01 } });
+    expect(past).toMatchObject({ status: 'error', errors: [{ field: 'kick.delay', message: expect.stringContaining('the run is already at') }] });
+    const later = paused.data.simulatedTime + 0.5;
+    const future = await control<{ term: { delay: number } }>(client, 'run:kick', { runId, kick: { channel: 'torque', shape: 'step', amplitude: 0.1, delay: later } });
+    expect(future).toMatchObject({ status: 'ok', data: { term: { delay: later } } });
+    const negative = await control(client, 'run:kick', { runId, kick: { channel: 'torque', shape: 'step', amplitude: 0.1, delay: -1 } });
+    expect(negative).toMatchObject({ status: 'error', errors: [{ field: 'kick.delay', message: 'delay must be zero or more' }] });
+  });
+
+  it('drops a flood of events past the per-connection limit with a clear error, and other sessions run on', async () => {
+    const flooder = connect();
+    const floodErrors: RunFailed[] = [];
+    flooder.on('run:error', (failure) => floodErrors.push(failure));
+    const other = connect();
+    const done = collect(other);
+    expect((await start(other, { scenarioId: scenarioIds[1], speed: 0 })).status).toBe('ok');
+
+    const sent = 5 * MAX_RUN_EVENTS_PER_SECOND;
+    const replies = await Promise.all(Array.from({ length: sent }, () => control(flooder, 'run:speed', { runId: 'no-such-run', speed: 1 })));
+    const limited = replies.filter((r) => r.status === 'error' && r.errors[0]!.message.startsWith('too many events'));
+    const served = replies.filter((r) => r.status === 'error' && r.errors[0]!.field === 'runId');
+    // Every event is answered: the first ones on their merits, the rest with the limit (a burst
+    // can straddle two one-second windows, so up to twice the limit may be served).
+    expect(served.length + limited.length).toBe(sent);
+    expect(served.length).toBeGreaterThanOrEqual(MAX_RUN_EVENTS_PER_SECOND);
+    expect(served.length).toBeLessThanOrEqual(2 * MAX_RUN_EVENTS_PER_SECOND);
+    expect(limited[0]!.status === 'error' && limited[0]!.errors[0]!.message).toMatch(/at most 60 a second; this one was dropped/);
+    // The client hears of the flood once per window, not once per dropped event.
+    const floodNotices = floodErrors.filter((f) => f.errors[0]!.message.startsWith('too many events'));
+    expect(floodNotices.length).toBeGreaterThanOrEqual(1);
+    expect(floodNotices.length).toBeLessThanOrEqual(2);
+
+    expect((await done).end.reason).toBe('finished');
+    // After the window the flooding connection is served again.
+    await new Promise((r) => setTimeout(r, 1100));
+    expect(await control(flooder, 'run:speed', { runId: 'no-such-run', speed: 1 })).toMatchObject({ status: 'error', errors: [{ field: 'runId' }] });
   });
 
   it('frees the live run when its client disconnects', async () => {
