@@ -452,6 +452,19 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       return { result, halt: halt as 'bound' | 'event' | null, eventTime };
     };
 
+    /** After arriving at the end of a stretch: false when a bound stopped the run there. */
+    const settleArrival = (): boolean => {
+      if (outOfBounds(y)) {
+        stopAt(time, boundMessage(y, time));
+        return false;
+      }
+      if (time >= horizon) {
+        emitFromState(horizon);
+        done = true;
+      }
+      return true;
+    };
+
     if (!started) {
       started = true;
       arriveAt(0);
@@ -467,14 +480,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         // edges: nothing on the joint changes before `end`, so the state stays put exactly.
         while (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps) emit(gridTime(nextIndex), y);
         arriveAt(end);
-        if (outOfBounds(y)) {
-          stopAt(time, boundMessage(y, time));
-          break;
-        }
-        if (time >= horizon) {
-          emitFromState(horizon);
-          done = true;
-        }
+        if (!settleArrival()) break;
         continue;
       }
       const gridInside = nextIndex <= lastWanted && gridTime(nextIndex) < end - eps;
@@ -516,14 +522,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         for (let c = 0; c < stateSize; c++) y[c] = result.y[c]!;
         arriveAt(end);
       }
-      if (outOfBounds(y)) {
-        stopAt(time, boundMessage(y, time));
-        break;
-      }
-      if (time >= horizon) {
-        emitFromState(horizon);
-        done = true;
-      }
+      if (!settleArrival()) break;
     }
     if (nextIndex > lastIndex) done = true;
     return {
