@@ -48,6 +48,15 @@ export function defaultCheckWorkers(cores = availableParallelism()): number {
   return Math.max(1, cores - 1);
 }
 
+/** A whole-number setting within [min, max], each refusal naming the variable and the bound. */
+function wholeNumber(name: string, min: number, max: number, unit = '') {
+  return z.coerce
+    .number({ error: `${name} must be a whole number${unit}` })
+    .int({ error: `${name} must be a whole number${unit}` })
+    .min(min, { error: min === 0 ? `${name} must be zero or more` : `${name} must be at least ${min}` })
+    .max(max, { error: `${name} must be at most ${max}` });
+}
+
 const envSchema = z.object({
   HOST: z.string().min(1).default('127.0.0.1'),
   PORT: z.coerce.number().int().min(0).max(65535).default(4300),
@@ -68,24 +77,9 @@ const envSchema = z.object({
   APP_BASE_URL: z.url({ protocol: /^https?$/, error: 'APP_BASE_URL must be an http:// or https:// address' }).optional(),
   INVITATION_TTL_HOURS: z.coerce.number().positive().max(24 * 30).default(72),
   PASSWORD_RESET_TTL_MINUTES: z.coerce.number().positive().max(24 * 60).default(60),
-  KINETWIN_CHECK_WORKERS: z.coerce
-    .number({ error: 'KINETWIN_CHECK_WORKERS must be a whole number' })
-    .int({ error: 'KINETWIN_CHECK_WORKERS must be a whole number' })
-    .min(1, { error: 'KINETWIN_CHECK_WORKERS must be at least 1' })
-    .max(MAX_CHECK_WORKERS, { error: `KINETWIN_CHECK_WORKERS must be at most ${MAX_CHECK_WORKERS}` })
-    .optional(),
-  KINETWIN_CHECK_QUEUE: z.coerce
-    .number({ error: 'KINETWIN_CHECK_QUEUE must be a whole number' })
-    .int({ error: 'KINETWIN_CHECK_QUEUE must be a whole number' })
-    .min(0, { error: 'KINETWIN_CHECK_QUEUE must be zero or more' })
-    .max(1000, { error: 'KINETWIN_CHECK_QUEUE must be at most 1000' })
-    .default(CHECK_QUEUE_SIZE),
-  KINETWIN_CHECK_TIME_LIMIT_MS: z.coerce
-    .number({ error: 'KINETWIN_CHECK_TIME_LIMIT_MS must be a whole number of milliseconds' })
-    .int({ error: 'KINETWIN_CHECK_TIME_LIMIT_MS must be a whole number of milliseconds' })
-    .min(100, { error: 'KINETWIN_CHECK_TIME_LIMIT_MS must be at least 100' })
-    .max(3_600_000, { error: 'KINETWIN_CHECK_TIME_LIMIT_MS must be at most 3600000 (one hour)' })
-    .default(CHECK_TIME_LIMIT_MS),
+  KINETWIN_CHECK_WORKERS: wholeNumber('KINETWIN_CHECK_WORKERS', 1, MAX_CHECK_WORKERS).optional(),
+  KINETWIN_CHECK_QUEUE: wholeNumber('KINETWIN_CHECK_QUEUE', 0, 1000).default(CHECK_QUEUE_SIZE),
+  KINETWIN_CHECK_TIME_LIMIT_MS: wholeNumber('KINETWIN_CHECK_TIME_LIMIT_MS', 100, 3_600_000, ' of milliseconds').default(CHECK_TIME_LIMIT_MS),
 });
 
 /** Parses the environment; on error returns one line naming each bad variable. */
