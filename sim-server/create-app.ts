@@ -14,6 +14,7 @@ import { authRoutes } from './auth/auth-routes';
 import { handshakeOriginAllowed, requireCsrfToken, requireSameOrigin } from './auth/csrf';
 import { createPassport } from './auth/passport-setup';
 import { passwordResetRoutes } from './auth/password-reset-routes';
+import { revokeSocketsThrough } from './auth/session-revocation';
 import { RouteTable, type RouteRecord } from './auth/route-table';
 import { createCheckPool } from './checks/check-pool';
 import { checkRoutes } from './checks/check-routes';
@@ -180,6 +181,7 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
   io.engine.use(handshakeOnly(sessionMiddleware));
   io.engine.use(handshakeOnly(passport.session() as RequestHandler));
   const runs = registerRunHandlers(io.of(RUN_NAMESPACE) as RunNamespace, { db: database.db, logger, maxLiveRuns: config.maxLiveRuns });
+  revokeSocketsThrough(app, runs);
 
   return {
     http,

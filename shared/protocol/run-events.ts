@@ -111,8 +111,17 @@ export interface ClientToServerEvents {
   'run:kick': (request: RunKickRequest, ack: AckCallback<RunKicked>) => void;
 }
 
+/** Every event a client may send on the run namespace; anything else is answered with an error. */
+export const RUN_CLIENT_EVENTS = ['run:start', 'run:stop', 'run:pause', 'run:resume', 'run:speed', 'run:scrub', 'run:kick'] as const satisfies readonly (keyof ClientToServerEvents)[];
+export type RunClientEvent = (typeof RUN_CLIENT_EVENTS)[number];
+
 export type InterServerEvents = Record<string, never>;
 
+/** What the server keeps on each socket from its handshake, to check the session again per event. */
 export interface SocketData {
   userId: number;
+  /** The cookie session the socket was opened under (express-session's id). */
+  sessionId: string;
+  /** The user's session generation at the handshake; sign-out everywhere raises it. */
+  generation: number;
 }

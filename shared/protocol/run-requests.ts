@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { scenarioSchema } from '../scenario/scenario-schema';
+import { idField } from './library-api';
 import { DEFAULT_RUN_DT, MAX_RUN_SPEED, MIN_RUN_SPEED } from './run-events';
 
 // Runtime validation of live-run requests, apart from the event types so the app's bench can
@@ -15,8 +16,11 @@ const runId = z.string({ error: 'runId must be text' }).min(1).max(64);
 
 export const runStartSchema = z
   .strictObject({
-    /** Run a stored scenario by id, or the scenario given inline (the bench's unsaved edits). */
-    scenarioId: z.number().int().positive().optional(),
+    /**
+     * Run a stored scenario by id, or the scenario given inline (the bench's unsaved edits). Ids
+     * are bounded to PostgreSQL's integer range, so an id the database would refuse is a field error.
+     */
+    scenarioId: idField('scenarioId').optional(),
     scenario: scenarioSchema.optional(),
     speed: speedSchema.default(1),
     dt: z.number().min(0.0005, { error: 'dt must be at least 0.0005 s' }).max(0.1, { error: 'dt must be at most 0.1 s' }).default(DEFAULT_RUN_DT),

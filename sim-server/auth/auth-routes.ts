@@ -13,6 +13,7 @@ import { ensureCsrfToken } from './csrf';
 import { hashPassword } from './passwords';
 import { userOf } from './require-user';
 import type { GuardedRouter } from './route-table';
+import { endThisSessionsSockets, endUserSockets } from './session-revocation';
 import { endSession, startSession } from './session-start';
 import { toSessionUser, type AuthUser } from './user-store';
 
@@ -98,12 +99,14 @@ export function authRoutes({ route }: GuardedRouter, { passport, db, signInLimit
   });
 
   route('post', '/sign-out', 'public', async (req, res) => {
+    endThisSessionsSockets(req, res);
     await endSession(req);
     res.status(204).end();
   });
 
   route('post', '/sign-out-everywhere', 'signed-in', async (req, res) => {
     await endAllSessions(db, userOf(req).id);
+    endUserSockets(req, userOf(req).id);
     await endSession(req);
     res.status(204).end();
   });

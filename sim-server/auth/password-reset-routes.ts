@@ -10,6 +10,7 @@ import { accountRequestLimiter } from './auth-routes';
 import { hashLinkToken, newLinkToken } from './link-tokens';
 import { hashPassword } from './passwords';
 import type { GuardedRouter } from './route-table';
+import { endUserSockets } from './session-revocation';
 import { startSession } from './session-start';
 import { findUserById, findUserWithHashByEmail } from './user-store';
 
@@ -65,6 +66,7 @@ export function passwordResetRoutes({ route }: GuardedRouter, { db, mailer, appB
         .where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
       return reset.userId;
     });
+    endUserSockets(req, userId);
     await startSession(req, res, (await findUserById(db, userId))!, 200);
   });
 }

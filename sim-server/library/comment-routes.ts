@@ -8,6 +8,7 @@ import type { GuardedRouter } from '../auth/route-table';
 import type { Database } from '../db/database';
 import { AppError } from '../http/app-error';
 import { mentionMail } from '../mail/mail-templates';
+import { refuseIfArchived } from '../scenarios/scenario-access';
 import { requireScenario, revisionNotFound } from '../scenarios/scenario-detail';
 import { recordActivity } from './activity-log';
 import { scenarioLink, type LibraryDeps } from './library-deps';
@@ -31,6 +32,7 @@ export function commentRoutes({ route }: GuardedRouter, { db, mailer, appBaseUrl
     const n = idParam(req, 'n', 'revision number');
     const body = bodyOf(req, commentCreateSchema, 'The comment is not valid; nothing was saved.');
     const scenario = await requireScenario(db, user, id);
+    refuseIfArchived(scenario, 'comment');
     const [revision] = await db
       .select({ id: scenarioRevisions.id })
       .from(scenarioRevisions)

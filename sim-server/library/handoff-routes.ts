@@ -7,7 +7,7 @@ import type { GuardedRouter } from '../auth/route-table';
 import type { Database } from '../db/database';
 import { AppError } from '../http/app-error';
 import { handoffMail } from '../mail/mail-templates';
-import { accessFor } from '../scenarios/scenario-access';
+import { accessFor, refuseIfArchived } from '../scenarios/scenario-access';
 import { requireScenario } from '../scenarios/scenario-detail';
 import { recordActivity } from './activity-log';
 import { scenarioLink, type LibraryDeps } from './library-deps';
@@ -24,7 +24,7 @@ export function scenarioHandoffRoutes({ route }: GuardedRouter, { db, mailer, ap
     const body = bodyOf(req, handoffCreateSchema, 'The hand-off is not valid; nothing was sent.');
     const scenario = await requireScenario(db, user, id);
     const access = await accessFor(db, user, id, scenario);
-    if (scenario.archivedAt !== null) throw new AppError(409, 'archived', 'This scenario is archived; restore it before handing it off.');
+    refuseIfArchived(scenario, 'handOff');
     if (body.access === 'edit' && !access.handOffEdit) throw new AppError(403, 'forbidden', 'Only the owner or an admin may hand this scenario off for editing; hand it off to view.');
     // Same words for an unknown id and another team's member: nothing about other teams leaks.
     const [to] = await db

@@ -1,7 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import type { Role } from '../../shared/protocol/api-types';
 import type { AuthUser } from '../auth/user-store';
-import { accessTo } from './scenario-access';
+import { ARCHIVED_REFUSES } from '../../shared/library/archived-scenario';
+import { accessTo, archivedRefusal, refuseIfArchived } from './scenario-access';
 
 const user = (role: Role, id = 1): AuthUser => ({ id, teamId: 1, email: `${role}@lab.test`, displayName: role, role, sessionGeneration: 0 });
 const live = { ownerId: 1, archivedAt: null };
@@ -27,7 +28,18 @@ describe('accessTo', () => {
     expect(accessTo(user('admin'), othersLive, false)).toMatchObject({ edit: true, archive: true, signOff: true, handOffEdit: true });
   });
 
-  it('makes an archived scenario read-only except for restoring it', () => {
-    expect(accessTo(user('admin'), archived, false)).toEqual({ edit: false, archive: true, signOff: false, comment: true, handOff: false, handOffEdit: false });
+  it('makes an archived scenario read-only except for restoring it: no comments or hand-offs either', () => {
+    expect(accessTo(user('admin'), archived, false)).toEqual({ edit: false, archive: true, signOff: false, comment: false, handOff: false, handOffEdit: false });
+  });
+
+  it('refuses acting on an archived scenario with one 409 whose words name what to do first', () => {
+    expect(() => refuseIfArchived(live, 'run')).not.toThrow();
+    for (const [doing, words] of Object.entries(ARCHIVED_REFUSES)) {
+      const refusal = archivedRefusal(doing as keyof typeof ARCHIVED_REFUSES);
+      expect(refusal).toMatchObject({ status: 409, code: 'archived', message: `This scenario is archived; restore it before ${words}.` });
+      expect(() => refuseIfArchived(archived, doing as keyof typeof ARCHIVED_REFUSES)).toThrow(refusal.message);
+    }
+    // Sign-off's refusal reads as it did before the rule moved here.
+    expect(archivedRefusal('signOff').message).toBe('This scenario is archived; restore it before signing off.');
   });
 });

@@ -1,5 +1,6 @@
 import { and, eq } from 'drizzle-orm';
 import { handoffs } from '../../drizzle/schema';
+import { ARCHIVED_REFUSES, archivedScenarioMessage, type ArchivedRefusal } from '../../shared/library/archived-scenario';
 import type { ScenarioAccess } from '../../shared/protocol/library-api';
 import { roleMay } from '../auth/permissions';
 import type { AuthUser } from '../auth/user-store';
@@ -15,7 +16,8 @@ export interface AccessSubject {
 /**
  * What a user may do with one scenario of their team: the role table first, then ownership.
  * Engineers and leads edit what they own or were handed for editing; admins edit anything of
- * their team; only the owner or an admin archives; an archived scenario is read-only until restored.
+ * their team; only the owner or an admin archives; an archived scenario is read-only until restored
+ * (no edits, sign-off, comments or hand-offs; runs by id are refused by refuseIfArchived too).
  */
 export function accessTo(user: AuthUser, subject: AccessSubject, handedForEditing: boolean): ScenarioAccess {
   const owns = subject.ownerId === user.id;
@@ -26,7 +28,7 @@ export function accessTo(user: AuthUser, subject: AccessSubject, handedForEditin
     edit: live && roleMay(user.role, 'scenario.edit') && (owns || admin || handedForEditing),
     archive: roleMay(user.role, 'scenario.archive') && (owns || admin),
     signOff: live && roleMay(user.role, 'revision.sign-off'),
-    comment: roleMay(user.role, 'comment.write'),
+    comment: live && roleMay(user.role, 'comment.write'),
     handOff,
     handOffEdit: handOff && (owns || admin),
   };
@@ -45,9 +47,19 @@ export async function accessFor(db: Pick<Database, 'select'>, user: AuthUser, sc
   return accessTo(user, subject, await handedForEditing(db, scenarioId, user.id));
 }
 
+/** The one refusal of an archived scenario: 409 'archived' with the words of ARCHIVED_REFUSES. */
+export function archivedRefusal(doing: ArchivedRefusal): AppError {
+  return new AppError(409, 'archived', archivedScenarioMessage(ARCHIVED_REFUSES[doing]));
+}
+
+/** Throws archivedRefusal for an archived scenario (runs by id, comments, hand-offs, sign-off). */
+export function refuseIfArchived(subject: AccessSubject, doing: ArchivedRefusal): void {
+  if (subject.archivedAt !== null) throw archivedRefusal(doing);
+}
+
 /** 409 for an archived scenario, 403 for the rest of what the rules refuse. */
 export function refuseUnless(allowed: boolean, subject: AccessSubject, what: string): void {
   if (allowed) return;
-  if (subject.archivedAt !== null) throw new AppError(409, 'archived', `This scenario is archived; restore it before you ${what}.`);
+  if (subject.archivedAt !== null) throw new AppError(409, 'archived', archivedScenarioMessage(`you ${what}`));
   throw new AppError(403, 'forbidden', `You may not ${what} this scenario: it is not yours and was not handed to you for editing.`);
 }

@@ -4,6 +4,7 @@ import { invitationCreateSchema, memberRoleSchema, type InvitationSummary, type 
 import { newLinkToken } from '../auth/link-tokens';
 import { userOf } from '../auth/require-user';
 import type { GuardedRouter } from '../auth/route-table';
+import { endUserSockets } from '../auth/session-revocation';
 import type { AuthUser } from '../auth/user-store';
 import { AppError } from '../http/app-error';
 import { recordActivity } from '../library/activity-log';
@@ -41,6 +42,7 @@ export function teamRoutes({ route }: GuardedRouter, { db, mailer, appBaseUrl, i
       await tx.update(users).set({ role }).where(eq(users.id, memberId));
       await recordActivity(tx, { teamId: admin.teamId, actorId: admin.id, action: 'member.role-changed', detail: { member: member.displayName, from: member.role, to: role } });
     });
+    endUserSockets(req, memberId);
     res.json({ id: memberId, role });
   });
 
@@ -58,6 +60,7 @@ export function teamRoutes({ route }: GuardedRouter, { db, mailer, appBaseUrl, i
         .where(eq(users.id, memberId));
       await recordActivity(tx, { teamId: admin.teamId, actorId: admin.id, action: 'member.removed', detail: { member: member.displayName } });
     });
+    endUserSockets(req, memberId);
     res.status(204).end();
   });
 
