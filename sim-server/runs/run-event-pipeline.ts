@@ -30,6 +30,11 @@ export function unknownEvent(event: string, known: readonly string[]): FieldErro
   return [{ field: 'event', message: `there is no event "${String(event).slice(0, 64)}" here; this connection takes ${known.join(', ')}` }];
 }
 
+/** The answer to an event sent with nothing but its acknowledgement. */
+export function missingPayload(event: string): FieldError[] {
+  return [{ field: '', message: `"${event}" needs a payload (an object); none was sent` }];
+}
+
 /** The acknowledgement of an event: socket.io passes it last, whatever came before (or nothing). */
 export function splitAck(args: unknown[]): { request: unknown; reply: (response: Ack<unknown>) => void } {
   const last = args.at(-1);
@@ -75,6 +80,8 @@ export function answerEvents(socket: Socket, pipeline: EventPipeline): void {
           pipeline.unchecked(event, session.error);
           return refuse([{ field: '', message: SESSION_UNCHECKED_MESSAGE }]);
         }
+        // Every event here takes an object; without one the answer says so, not "value is required".
+        if (request === undefined) return refuse(missingPayload(event));
         let response: Ack<unknown>;
         try {
           response = await handle(request, session.user);
