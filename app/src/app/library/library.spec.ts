@@ -3,6 +3,7 @@ import { HttpTestingController, provideHttpClientTesting } from '@angular/common
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { provideRouter } from '@angular/router';
 import type { LibraryItem, LibraryPage, TeamResponse } from '@kinetwin/shared/protocol/library-api';
+import { ARCHIVED_SCENARIO_NOTE } from '@kinetwin/shared/library/archived-scenario';
 import { Library, SEARCH_DEBOUNCE_MS } from './library';
 
 // Built from local times so the expected text holds in any time zone. Demo data.
@@ -60,6 +61,24 @@ describe('Library', () => {
     const links = rows.map((row) => row.querySelector<HTMLAnchorElement>('a[data-test=open-scenario]')!);
     expect(links.map((a) => a.getAttribute('href'))).toEqual(['/bench/3', '/bench/11']);
     expect(rows[0]!.querySelector('a[data-test=open-scenario-page]')?.getAttribute('href')).toBe('/library/3');
+  });
+
+  it('shows an archived scenario without a bench link, saying it must be restored before it can be run, commented on or handed off', async () => {
+    const archived: LibraryItem = { ...items[0]!, id: 4, name: 'Demo retired elbow', status: 'archived' };
+    listRequest().flush(page([archived, items[1]!]));
+    await settle();
+    const [archivedRow, liveRow] = [...root.querySelectorAll<HTMLElement>('[data-test=scenario-row]')];
+    expect(archivedRow!.querySelector('a[data-test=open-scenario]')).toBeNull();
+    expect(archivedRow!.querySelector('[data-test=archived-name]')?.textContent?.trim()).toBe('Demo retired elbow');
+    const note = archivedRow!.querySelector<HTMLElement>('[data-test=archived-note]')!;
+    expect(note.textContent?.trim()).toBe(ARCHIVED_SCENARIO_NOTE);
+    expect(ARCHIVED_SCENARIO_NOTE).toBe('This scenario is archived; restore it before running it, commenting on it or handing it off.');
+    expect(archivedRow!.querySelector('[data-test=archived-name]')?.getAttribute('aria-describedby')).toBe(note.id);
+    expect(archivedRow!.querySelector('[data-test=scenario-status]')?.textContent?.trim()).toBe('Archived');
+    // Its page, where it is restored, stays one click away; a live row keeps its bench link.
+    expect(archivedRow!.querySelector('a[data-test=open-scenario-page]')?.getAttribute('href')).toBe('/library/4');
+    expect(liveRow!.querySelector('a[data-test=open-scenario]')?.getAttribute('href')).toBe('/bench/11');
+    expect(liveRow!.querySelector('[data-test=archived-note]')).toBeNull();
   });
 
   it('asks the server again after a pause in typing, from the first page', async () => {

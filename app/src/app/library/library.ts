@@ -11,6 +11,7 @@ import { MatSelectModule } from '@angular/material/select';
 import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
+import { ARCHIVED_SCENARIO_NOTE } from '@kinetwin/shared/library/archived-scenario';
 import type { LibraryPage, TeamMember } from '@kinetwin/shared/protocol/library-api';
 import { catchError, debounce, distinctUntilChanged, firstValueFrom, map, of, switchMap, tap, timer } from 'rxjs';
 import { apiErrorMessage } from '../core/api-error-message';
@@ -25,7 +26,10 @@ export const SEARCH_DEBOUNCE_MS = 250;
 
 const STATUS_LABEL: Record<string, string> = { draft: 'Draft', 'signed-off': 'Signed off', archived: 'Archived' };
 
-/** The team's scenarios: search, filters, sort and pages on the server; each name opens its bench. */
+/**
+ * The team's scenarios: search, filters, sort and pages on the server; each name opens its bench,
+ * except an archived one's, which says why it cannot run until restored.
+ */
 @Component({
   selector: 'kt-library',
   changeDetection: ChangeDetectionStrategy.OnPush,
@@ -41,6 +45,7 @@ export class Library {
   protected readonly columns = ['name', 'owner', 'status', 'tags', 'updatedAt', 'actions'] as const;
   protected readonly pageSizes = LIBRARY_PAGE_SIZES;
   protected readonly statusLabel = STATUS_LABEL;
+  protected readonly archivedNote = ARCHIVED_SCENARIO_NOTE;
 
   private readonly viewState = signal<LibraryView>(DEFAULT_LIBRARY_VIEW);
   protected readonly view = this.viewState.asReadonly();

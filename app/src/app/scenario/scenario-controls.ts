@@ -11,6 +11,8 @@ export interface ScenarioControls {
   tag: boolean;
   archive: boolean;
   duplicate: boolean;
+  /** Open the stored scenario on the bench and run it (refused while archived, like the server). */
+  run: boolean;
   handOff: boolean;
   comment: boolean;
   /** Sign off the revision on view (not when it already is). */
@@ -41,8 +43,9 @@ export function scenarioControls({ access, role, archived, viewingNewest, viewed
     tag: access.edit && !archived,
     archive: access.archive,
     duplicate: mayCreate,
+    run: !archived,
     handOff: access.handOff && !archived,
-    comment: access.comment,
+    comment: access.comment && !archived,
     signOff: access.signOff && !archived && !viewedSignedOff,
   };
 }

@@ -6,6 +6,7 @@ import { provideRouter } from '@angular/router';
 import type { Role, SessionUser } from '@kinetwin/shared/protocol/api-types';
 import type { LibraryDetail, RevisionDetail, ScenarioAccess } from '@kinetwin/shared/protocol/library-api';
 import { parseScenario } from '@kinetwin/shared/scenario/parse-scenario';
+import { ARCHIVED_SCENARIO_NOTE } from '@kinetwin/shared/library/archived-scenario';
 import { Session } from '../core/session';
 import { ScenarioPage } from './scenario-page';
 
@@ -23,7 +24,14 @@ const ACCESS: Record<Role, ScenarioAccess> = {
   admin: { edit: true, archive: true, signOff: true, comment: true, handOff: true, handOffEdit: true },
 };
 
+let archivedAt: string | null = null;
+
 function detail(role: Role): LibraryDetail {
+  // The server's access for an archived scenario: no edits, comments, hand-offs or sign-off.
+  if (archivedAt !== null) {
+    const access = { ...ACCESS[role], edit: false, comment: false, handOff: false, handOffEdit: false, signOff: false };
+    return { id: 9, name: 'Gantry', ownerName: 'Rhea', ownerId: 1, updatedAt: archivedAt, lastChangedBy: 'Rhea', status: 'archived', tags: [], revision: 2, scenario: document, signOff: null, archivedAt, access };
+  }
   return { id: 9, name: 'Gantry', ownerName: 'Rhea', ownerId: 1, updatedAt: '2026-12-01T10:00:00.000Z', lastChangedBy: 'Rhea', status: 'draft', tags: [], revision: 2, scenario: document, signOff: null, archivedAt: null, access: ACCESS[role] };
 }
 const revision: RevisionDetail = { number: 2, note: 'kp up', author: { id: 1, displayName: 'Rhea' }, createdAt: '2026-12-01T10:00:00.000Z', signOff: null, scenarioId: 9, scenario: document };
@@ -67,7 +75,10 @@ describe('ScenarioPage controls by role', () => {
   const shown = (names: string[]) => names.filter((name) => root.querySelector(`[data-test=${name}]`) !== null);
   const CONTROLS = ['save-revision', 'hand-off', 'sign-off', 'comment-body', 'rename', 'archive', 'duplicate', 'export'];
 
-  afterEach(() => http.verify());
+  afterEach(() => {
+    http.verify();
+    archivedAt = null;
+  });
 
   it('shows a viewer the parameters read-only and no control that changes anything, export aside', async () => {
     await open('viewer');
@@ -79,6 +90,27 @@ describe('ScenarioPage controls by role', () => {
   it('gives the owning engineer the editor, hand-off, comments, name, archive and duplicate, but no sign-off', async () => {
     await open('engineer');
     expect(shown(CONTROLS)).toEqual(['save-revision', 'hand-off', 'comment-body', 'rename', 'archive', 'duplicate', 'export']);
+  });
+
+  it('tells the owner of an archived scenario it must be restored before it can be run, commented on or handed off, with the bench button disabled', async () => {
+    archivedAt = '2026-12-01T11:00:00.000Z';
+    await open('engineer');
+    expect(shown(CONTROLS)).toEqual(['duplicate', 'export']);
+    expect(root.querySelector('[data-test=unarchive]')).not.toBeNull();
+    const reason = root.querySelector<HTMLElement>('[data-test=archived-reason]')!;
+    expect(reason.textContent?.trim()).toBe(ARCHIVED_SCENARIO_NOTE);
+    const bench = root.querySelector<HTMLElement>('[data-test=open-bench]')!;
+    expect(bench.tagName).toBe('BUTTON');
+    expect(bench.getAttribute('aria-disabled') === 'true' || bench.hasAttribute('disabled')).toBe(true);
+    expect(bench.getAttribute('title')).toBe(ARCHIVED_SCENARIO_NOTE);
+    expect(bench.getAttribute('aria-describedby')).toBe(reason.id);
+    expect(root.querySelector('[data-test=comments-archived]')?.textContent?.trim()).toBe(ARCHIVED_SCENARIO_NOTE);
+  });
+
+  it('links a live scenario to its bench', async () => {
+    await open('viewer');
+    expect(root.querySelector('a[data-test=open-bench]')?.getAttribute('href')).toBe('/bench/9');
+    expect(root.querySelector('[data-test=archived-reason]')).toBeNull();
   });
 
   it('gives a lead sign-off and comments but no editor on a scenario that is not theirs', async () => {

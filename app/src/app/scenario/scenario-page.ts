@@ -9,6 +9,7 @@ import { Title } from '@angular/platform-browser';
 import { Router, RouterLink } from '@angular/router';
 import type { ActivityPage, Comment, LibraryDetail, RevisionDetail, RevisionDiff, RevisionSummary, TeamMember } from '@kinetwin/shared/protocol/library-api';
 import { SAFETY_CAUTION } from '@kinetwin/shared/protocol/library-api';
+import { ARCHIVED_SCENARIO_NOTE } from '@kinetwin/shared/library/archived-scenario';
 import { combineLatest, firstValueFrom, map, of, switchMap } from 'rxjs';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error-message';
 import { LibraryApi } from '../core/library-api';
@@ -217,6 +218,7 @@ export class ScenarioPage {
   protected readonly nameText = computed(() => this.nameDraft() ?? this.detail()?.name ?? '');
   protected readonly tagsText = computed(() => this.tagsDraft() ?? this.detail()?.tags.join(', ') ?? '');
   protected readonly caution = SAFETY_CAUTION;
+  protected readonly archivedNote = ARCHIVED_SCENARIO_NOTE;
   protected readonly describe = activityText;
 
   constructor() {
