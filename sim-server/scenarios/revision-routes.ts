@@ -16,7 +16,7 @@ import { recordActivity } from '../library/activity-log';
 import { scenarioLink, type LibraryDeps } from '../library/library-deps';
 import { bodyOf, idParam, queryOf } from '../library/request-input';
 import { signOffMail } from '../mail/mail-templates';
-import { accessFor, refuseUnless } from './scenario-access';
+import { accessFor, refuseIfArchived, refuseUnless } from './scenario-access';
 import { libraryDetail, requireScenario, revisionNotFound, scenarioNotFound } from './scenario-detail';
 import { appendRevision, findRevision, listRevisions, lockScenario } from './revision-store';
 
@@ -89,7 +89,7 @@ export function revisionRoutes({ route }: GuardedRouter, { db, mailer, appBaseUr
     const signed = await db.transaction(async (tx) => {
       const row = await lockScenario(tx, user.teamId, id);
       if (!row) throw scenarioNotFound(id);
-      if (row.archivedAt !== null) throw new AppError(409, 'archived', 'This scenario is archived; restore it before signing off.');
+      refuseIfArchived(row, 'signOff');
       const [revision] = await tx
         .select({ id: scenarioRevisions.id, signedOffAt: scenarioRevisions.signedOffAt })
         .from(scenarioRevisions)
