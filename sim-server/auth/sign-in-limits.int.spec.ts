@@ -1,13 +1,13 @@
 import { subscribe, unsubscribe } from 'node:diagnostics_channel';
 import { randomBytes } from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import { desc, eq, sql } from 'drizzle-orm';
+import { desc, eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { outbox, teams, users } from '../../drizzle/schema';
 import { readJson, startTestServer, type TestServer } from '../testing/test-server';
 import { WRONG_CREDENTIALS } from './auth-routes';
 import { hashPassword, PASSWORD_WORK_CHANNEL, SCRYPT_PARAMS } from './passwords';
-import { addressKey, SIGN_IN_LIMITS_TABLE } from './sign-in-limits';
+import { createSignInLimits } from './sign-in-limits';
 
 const PASSWORD = 'joint-stiffness-31';
 const stamp = `${Date.now()}-${process.pid}`;
@@ -49,7 +49,7 @@ function signInAs(t: TestServer, email: string, password: string, forwardedFor?:
 
 /** Failures this file made from the real loopback address must not count against later files. */
 async function forgetLoopback(t: TestServer): Promise<void> {
-  await t.database.db.execute(sql`DELETE FROM ${sql.identifier(SIGN_IN_LIMITS_TABLE)} WHERE key = ${`address:${addressKey('127.0.0.1')}`}`);
+  await createSignInLimits(t.database.pool, { accountLimit: 1, addressLimit: 1, windowMinutes: 1, lockoutMinutes: 1 }).clearAddress('127.0.0.1');
 }
 
 let passwordHash: string;

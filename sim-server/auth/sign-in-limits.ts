@@ -1,11 +1,10 @@
 import { createHash } from 'node:crypto';
+import { getTableName } from 'drizzle-orm';
 import { ipKeyGenerator } from 'express-rate-limit';
 import type pg from 'pg';
 import { RateLimiterPostgres, RateLimiterRes } from 'rate-limiter-flexible';
+import { signInLimits } from '../../drizzle/schema';
 import { AppError } from '../http/app-error';
-
-/** The table drizzle/schema.ts creates (migration 0002); the limiter never creates it itself. */
-export const SIGN_IN_LIMITS_TABLE = 'sign_in_limits';
 
 export interface SignInLimitOptions {
   /** Failed sign-ins per account within the window; the next attempt locks the account. */
@@ -34,6 +33,8 @@ export interface SignInLimits {
   succeeded(address: string, email: string): Promise<void>;
   /** Ends the account's count and lockout (a completed password reset). */
   clearAccount(email: string): Promise<void>;
+  /** Ends an address's count (an operator lifting a block; tests starting from a clean count). */
+  clearAddress(address: string): Promise<void>;
 }
 
 /** A refusal of the limits; `retryAfterSeconds` goes into the Retry-After header (RFC 6585 §4). */
@@ -47,16 +48,18 @@ export class SignInRefused extends AppError {
   }
 }
 
-/** Row keys: an e-mail only as its SHA-256 (the table stores no addresses people typed), an address as express-rate-limit keys it (IPv6 by /56). */
-export function accountKey(email: string): string {
+// Row keys: an e-mail only as its SHA-256 (the table keeps no address anyone typed), a client
+// address as express-rate-limit keys it (IPv6 by /56).
+function accountKey(email: string): string {
   return createHash('sha256').update(email.trim().toLowerCase(), 'utf8').digest('hex');
 }
-export function addressKey(address: string): string {
+function addressKey(address: string): string {
   return ipKeyGenerator(address);
 }
 
 export function createSignInLimits(pool: pg.Pool, options: SignInLimitOptions): SignInLimits {
-  const common = { storeClient: pool, storeType: 'pool', tableName: SIGN_IN_LIMITS_TABLE, tableCreated: true, duration: options.windowMinutes * 60 };
+  // The table comes from migration 0002 (tableCreated): the app's role may not create tables.
+  const common = { storeClient: pool, storeType: 'pool', tableName: getTableName(signInLimits), tableCreated: true, duration: options.windowMinutes * 60 };
   const account = new RateLimiterPostgres({ ...common, keyPrefix: 'account', points: options.accountLimit, blockDuration: options.lockoutMinutes * 60 });
   const address = new RateLimiterPostgres({ ...common, keyPrefix: 'address', points: options.addressLimit });
 
@@ -81,6 +84,9 @@ export function createSignInLimits(pool: pg.Pool, options: SignInLimitOptions): 
     },
     async clearAccount(email) {
       await account.delete(accountKey(email));
+    },
+    async clearAddress(ip) {
+      await address.delete(addressKey(ip));
     },
   };
 }
