@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { type AnyPgColumn, index, integer, json, jsonb, pgEnum, pgTable, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
+import { type AnyPgColumn, bigint, index, integer, json, jsonb, pgEnum, pgTable, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
 import { roles } from '../shared/protocol/api-types';
 import { handoffAccesses } from '../shared/protocol/library-api';
 
@@ -202,4 +202,19 @@ export const sessions = pgTable(
     expire: timestamp('expire', { precision: 6 }).notNull(),
   },
   (table) => [index('IDX_session_expire').on(table.expire)],
+);
+
+/**
+ * Sign-in failure counters and lockouts, in the layout rate-limiter-flexible's RateLimiterPostgres
+ * reads and writes (it is passed tableCreated: true, so the app's role needs no DDL). Keys are
+ * "account:<SHA-256 of the e-mail>" and "address:<client address>"; `expire` is a Unix time in ms.
+ */
+export const signInLimits = pgTable(
+  'sign_in_limits',
+  {
+    key: varchar('key', { length: 255 }).primaryKey(),
+    points: integer('points').notNull().default(0),
+    expire: bigint('expire', { mode: 'number' }),
+  },
+  (table) => [index('sign_in_limits_expire_idx').on(table.expire)],
 );

@@ -1,6 +1,7 @@
 import { availableParallelism } from 'node:os';
 import { z } from 'zod';
 import { describeFieldErrors, parseWith } from '../shared/validation/field-errors';
+import { parseTrustedProxies } from './auth/trusted-proxies';
 import { CHECK_QUEUE_SIZE, CHECK_TIME_LIMIT_MS } from './checks/check-limits';
 
 /** Everything the server reads from its environment; nothing else reads process.env. */
@@ -12,9 +13,19 @@ export interface ServerConfig {
   mode: 'demo' | 'production';
   sessionSecret: string;
   logLevel: 'fatal' | 'error' | 'warn' | 'info' | 'debug' | 'trace' | 'silent';
-  /** Failed sign-in attempts allowed per address and e-mail within signInWindowMinutes. */
+  /** Failed sign-ins allowed per account (e-mail), from any address, within signInWindowMinutes; one more locks it. */
   signInLimit: number;
   signInWindowMinutes: number;
+  /** How long a locked account stays locked, minutes, unless its owner completes a password reset first. */
+  signInLockoutMinutes: number;
+  /** Failed sign-ins allowed per client address, across all e-mails, within signInWindowMinutes. */
+  signInAddressLimit: number;
+  /** Proxies whose X-Forwarded-For is believed (Express `trust proxy` list), or false: none, req.ip is the socket's address. */
+  trustProxy: string[] | false;
+  /** Password hashes (scrypt, legacy bcrypt) computed at once; the rest wait their turn. */
+  passwordHashConcurrency: number;
+  /** How often expired sessions are deleted from the session table, seconds. */
+  sessionPruneIntervalSeconds: number;
   /** Sign-ups, invitation look-ups and password-reset requests allowed per address within signInWindowMinutes. */
   accountRequestLimit: number;
   /** Live runs one server accepts at once; more are refused with a message. */
@@ -48,6 +59,14 @@ export function defaultCheckWorkers(cores = availableParallelism()): number {
   return Math.max(1, cores - 1);
 }
 
+/**
+ * Password hashes at once: one core stays with the event loop, and at most two of libuv's four
+ * default threads hash, so file and DNS work (the same thread pool) is never queued behind them.
+ */
+export function defaultPasswordHashConcurrency(cores = availableParallelism()): number {
+  return Math.min(2, Math.max(1, cores - 1));
+}
+
 /** A whole-number setting within [min, max], each refusal naming the variable and the bound. */
 function wholeNumber(name: string, min: number, max: number, unit = '') {
   return z.coerce
@@ -66,8 +85,13 @@ const envSchema = z.object({
   KINETWIN_MODE: z.enum(['demo', 'production']).default('demo'),
   SESSION_SECRET: z.string().min(16, { error: 'SESSION_SECRET must be at least 16 characters' }).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
-  SIGN_IN_LIMIT: z.coerce.number().int().positive().default(10),
+  SIGN_IN_LIMIT: wholeNumber('SIGN_IN_LIMIT', 1, 1000).default(10),
   SIGN_IN_WINDOW_MINUTES: z.coerce.number().positive().default(10),
+  SIGN_IN_LOCKOUT_MINUTES: wholeNumber('SIGN_IN_LOCKOUT_MINUTES', 1, 24 * 60, ' of minutes').default(30),
+  SIGN_IN_ADDRESS_LIMIT: wholeNumber('SIGN_IN_ADDRESS_LIMIT', 1, 100_000).default(50),
+  TRUST_PROXY: z.string().optional(),
+  PASSWORD_HASH_CONCURRENCY: wholeNumber('PASSWORD_HASH_CONCURRENCY', 1, 16).optional(),
+  SESSION_PRUNE_INTERVAL_SECONDS: wholeNumber('SESSION_PRUNE_INTERVAL_SECONDS', 1, 24 * 3600, ' of seconds').default(15 * 60),
   ACCOUNT_REQUEST_LIMIT: z.coerce.number().int().positive().default(20),
   MAX_LIVE_RUNS: z.coerce.number().int().positive().default(200),
   STATIC_DIR: z.string().default('dist/app/browser'),
@@ -93,6 +117,8 @@ export function readConfig(env: Record<string, string | undefined>): { ok: true;
   if (e.KINETWIN_MODE === 'production' && !e.APP_BASE_URL) {
     return { ok: false, message: 'configuration: APP_BASE_URL is required when KINETWIN_MODE=production (e-mailed links start with it)' };
   }
+  const trustProxy = parseTrustedProxies(e.TRUST_PROXY);
+  if (!trustProxy.ok) return { ok: false, message: `configuration: ${trustProxy.message}` };
   if (e.MAIL_TRANSPORT === 'smtp') {
     if (!e.SMTP_URL) return { ok: false, message: 'configuration: SMTP_URL is required when MAIL_TRANSPORT=smtp' };
   }
@@ -108,6 +134,11 @@ export function readConfig(env: Record<string, string | undefined>): { ok: true;
       logLevel: e.LOG_LEVEL,
       signInLimit: e.SIGN_IN_LIMIT,
       signInWindowMinutes: e.SIGN_IN_WINDOW_MINUTES,
+      signInLockoutMinutes: e.SIGN_IN_LOCKOUT_MINUTES,
+      signInAddressLimit: e.SIGN_IN_ADDRESS_LIMIT,
+      trustProxy: trustProxy.value,
+      passwordHashConcurrency: e.PASSWORD_HASH_CONCURRENCY ?? defaultPasswordHashConcurrency(),
+      sessionPruneIntervalSeconds: e.SESSION_PRUNE_INTERVAL_SECONDS,
       accountRequestLimit: e.ACCOUNT_REQUEST_LIMIT,
       maxLiveRuns: e.MAX_LIVE_RUNS,
       staticDir: e.STATIC_DIR,

@@ -12,10 +12,13 @@ import type { AppInfo } from '../shared/protocol/api-types';
 import { RUN_NAMESPACE } from '../shared/protocol/run-events';
 import { authRoutes } from './auth/auth-routes';
 import { handshakeOriginAllowed, requireCsrfToken, requireSameOrigin } from './auth/csrf';
+import { closeBcryptWorker } from './auth/legacy-bcrypt';
 import { createPassport } from './auth/passport-setup';
 import { passwordResetRoutes } from './auth/password-reset-routes';
 import { revokeSocketsThrough } from './auth/session-revocation';
+import { setPasswordHashConcurrency } from './auth/passwords';
 import { RouteTable, type RouteRecord } from './auth/route-table';
+import { createSignInLimits } from './auth/sign-in-limits';
 import { createCheckPool } from './checks/check-pool';
 import { checkRoutes } from './checks/check-routes';
 import type { ServerConfig } from './config';
@@ -61,7 +64,9 @@ export const CSRF_EXEMPT_PATHS = ['/auth/sign-in', '/auth/sign-up', '/auth/sign-
 export function createKinetwinServer(config: ServerConfig, database: DatabaseHandle, logger: Logger, version: string): KinetwinServer {
   const app = express();
   app.disable('x-powered-by');
-  app.set('trust proxy', 'loopback');
+  // X-Forwarded-For is believed only from the proxies TRUST_PROXY names (none by default): a
+  // header any client can write must not choose the address the sign-in limits count against.
+  app.set('trust proxy', config.trustProxy);
 
   app.use(
     helmet({
@@ -93,8 +98,10 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
   );
 
   const PgStore = connectPgSimple(session);
+  // Expired sessions are deleted every SESSION_PRUNE_INTERVAL_SECONDS (±50 %, so nodes spread out).
+  const sessionStore = new PgStore({ pool: database.pool, tableName: 'session', createTableIfMissing: false, pruneSessionInterval: config.sessionPruneIntervalSeconds });
   const sessionMiddleware = session({
-    store: new PgStore({ pool: database.pool, tableName: 'session', createTableIfMissing: false }),
+    store: sessionStore,
     name: 'kinetwin.sid',
     secret: config.sessionSecret,
     resave: false,
@@ -131,10 +138,18 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
   api.use('/app-info', appInfoRoute(info));
   api.use(sessionMiddleware, passport.initialize(), passport.session());
   api.use(requireSameOrigin(config.appBaseUrl), requireCsrfToken(CSRF_EXEMPT_PATHS));
-  const limits = { signInLimit: config.signInLimit, signInWindowMinutes: config.signInWindowMinutes, accountRequestLimit: config.accountRequestLimit };
-  mount('/auth', (r) => authRoutes(r, { passport, db: database.db, ...limits }));
+  setPasswordHashConcurrency(config.passwordHashConcurrency);
+  const signInLimits = createSignInLimits(database.pool, {
+    accountLimit: config.signInLimit,
+    addressLimit: config.signInAddressLimit,
+    windowMinutes: config.signInWindowMinutes,
+    lockoutMinutes: config.signInLockoutMinutes,
+  });
+  mount('/auth', (r) =>
+    authRoutes(r, { passport, db: database.db, signInLimits, signInWindowMinutes: config.signInWindowMinutes, accountRequestLimit: config.accountRequestLimit, csrfSecret: config.sessionSecret }),
+  );
   mount('/auth/password-reset', (r) =>
-    passwordResetRoutes(r, { ...deps, ttlMinutes: config.passwordResetTtlMinutes, accountRequestLimit: config.accountRequestLimit, windowMinutes: config.signInWindowMinutes }),
+    passwordResetRoutes(r, { ...deps, ttlMinutes: config.passwordResetTtlMinutes, accountRequestLimit: config.accountRequestLimit, windowMinutes: config.signInWindowMinutes, signInLimits }),
   );
   mount(
     '/scenarios',
@@ -197,6 +212,8 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
           http.closeAllConnections();
         }),
         checkPool.close(),
+        sessionStore.close(),
+        closeBcryptWorker(),
       ]);
     },
   };

@@ -1,4 +1,4 @@
-import type { NextFunction, Request, Response } from 'express';
+import type { Request, Response } from 'express';
 import { ipKeyGenerator, rateLimit } from 'express-rate-limit';
 import type { PassportStatic } from 'passport';
 import { z } from 'zod';
@@ -9,12 +9,13 @@ import type { Database } from '../db/database';
 import { AppError } from '../http/app-error';
 import { bodyOf } from '../library/request-input';
 import { createAccount, endAllSessions, lockInvitation } from './account-store';
-import { ensureCsrfToken } from './csrf';
+import { anonymousCsrfToken, ensureCsrfToken } from './csrf';
 import { hashPassword } from './passwords';
 import { userOf } from './require-user';
 import type { GuardedRouter } from './route-table';
 import { endThisSessionsSockets, endUserSockets } from './session-revocation';
 import { endSession, startSession } from './session-start';
+import { SignInRefused, type SignInLimits } from './sign-in-limits';
 import { toSessionUser, type AuthUser } from './user-store';
 
 const signInSchema = z.strictObject({
@@ -28,10 +29,13 @@ export const WRONG_CREDENTIALS = 'Email or password is incorrect.';
 export interface AuthRouteOptions {
   passport: PassportStatic;
   db: Database;
-  signInLimit: number;
+  /** Failed sign-ins per account and per address, kept in PostgreSQL. */
+  signInLimits: SignInLimits;
   signInWindowMinutes: number;
   /** Sign-ups and password-reset requests allowed per address within signInWindowMinutes. */
   accountRequestLimit: number;
+  /** Signs the CSRF tokens of visitors who have not signed in (the session secret). */
+  csrfSecret: string;
 }
 
 function limited(message: string) {
@@ -53,27 +57,33 @@ export function accountRequestLimiter(limit: number, windowMinutes: number) {
   });
 }
 
-export function authRoutes({ route }: GuardedRouter, { passport, db, signInLimit, signInWindowMinutes, accountRequestLimit }: AuthRouteOptions): void {
-  const signInLimiter = rateLimit({
-    windowMs: signInWindowMinutes * 60_000,
-    limit: signInLimit,
-    skipSuccessfulRequests: true,
-    standardHeaders: 'draft-8',
-    legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').trim().toLowerCase()}`,
-    handler: limited(`Too many failed sign-in attempts. Try again in ${signInWindowMinutes} minutes.`),
+/** passport-local's verdict as a promise: the user, or false for a wrong e-mail or password. */
+function authenticateLocal(passport: PassportStatic, req: Request, res: Response): Promise<AuthUser | false> {
+  return new Promise((resolve, reject) => {
+    passport.authenticate('local', (err: unknown, user: AuthUser | false) => (err ? reject(err) : resolve(user)))(req, res, reject);
   });
+}
+
+export function authRoutes({ route }: GuardedRouter, { passport, db, signInLimits, signInWindowMinutes, accountRequestLimit, csrfSecret }: AuthRouteOptions): void {
   const accountLimiter = accountRequestLimiter(accountRequestLimit, signInWindowMinutes);
 
-  route('post', '/sign-in', 'public', signInLimiter, (req: Request, res: Response, next: NextFunction) => {
+  route('post', '/sign-in', 'public', async (req, res) => {
     const parsed = parseWith(signInSchema, req.body);
-    if (!parsed.ok) return next(AppError.badRequest('Enter an email and a password.', parsed.errors));
+    if (!parsed.ok) throw AppError.badRequest('Enter an email and a password.', parsed.errors);
     req.body = parsed.value;
-    passport.authenticate('local', (err: unknown, user: AuthUser | false) => {
-      if (err) return next(err);
-      if (!user) return next(new AppError(401, 'wrong_credentials', WRONG_CREDENTIALS));
-      startSession(req, res, user, 200).catch(next);
-    })(req, res, next);
+    const { email } = parsed.value;
+    // req.ip is the socket's address unless TRUST_PROXY names the proxy it came through.
+    const address = req.ip ?? req.socket.remoteAddress ?? '';
+    try {
+      await signInLimits.begin(address, email);
+    } catch (err) {
+      if (err instanceof SignInRefused) res.set('Retry-After', String(err.retryAfterSeconds));
+      throw err;
+    }
+    const user = await authenticateLocal(passport, req, res);
+    if (!user) throw new AppError(401, 'wrong_credentials', WRONG_CREDENTIALS);
+    await signInLimits.succeeded(address, email);
+    await startSession(req, res, user, 200);
   });
 
   route('post', '/sign-up', 'public', accountLimiter, async (req, res) => {
@@ -117,8 +127,9 @@ export function authRoutes({ route }: GuardedRouter, { passport, db, signInLimit
     res.json({ user: toSessionUser(userOf(req)) });
   });
 
+  // A signed-in session keeps its synchronizer token; a visitor gets one that needs no stored session.
   route('get', '/csrf', 'public', (req, res) => {
-    const body: CsrfTokenResponse = { csrfToken: ensureCsrfToken(req, res) };
+    const body: CsrfTokenResponse = { csrfToken: req.user ? ensureCsrfToken(req, res) : anonymousCsrfToken(req, res, csrfSecret) };
     res.json(body);
   });
 }

@@ -1,4 +1,4 @@
-import { randomBytes, timingSafeEqual } from 'node:crypto';
+import { createHmac, randomBytes, timingSafeEqual } from 'node:crypto';
 import type { Request, RequestHandler, Response } from 'express';
 import { CSRF_HEADER } from '../../shared/protocol/library-api';
 import { AppError } from '../http/app-error';
@@ -22,9 +22,33 @@ const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 /** The session's token, created on first use; also refreshes the XSRF-TOKEN cookie. */
 export function ensureCsrfToken(req: Request, res: Response): string {
   req.session.csrfToken ??= randomBytes(32).toString('base64url');
-  // Secure whenever the request itself came over HTTPS, like the session cookie's 'auto'.
-  res.cookie(XSRF_COOKIE, req.session.csrfToken, { httpOnly: false, sameSite: 'strict', secure: req.secure, path: '/' });
+  setXsrfCookie(req, res, req.session.csrfToken);
   return req.session.csrfToken;
+}
+
+/**
+ * A token for a visitor who has not signed in, with nothing stored: a random value and its
+ * HMAC-SHA256 under the server's secret, sent as the XSRF-TOKEN cookie and in the body (OWASP
+ * CSRF Prevention Cheat Sheet, "Signed Double-Submit Cookie"). The HMAC covers a fixed label as
+ * well, so no other value the server signs can pass for a token. Pre-session requests (sign-in,
+ * sign-up, reset) are still guarded by the Origin check, as before. Storing a session per visitor
+ * would let anonymous traffic fill the session table (issue 16 §4); signing in replaces this
+ * token with the session's own synchronizer token.
+ */
+export function anonymousCsrfToken(req: Request, res: Response, secret: string): string {
+  const nonce = randomBytes(32).toString('base64url');
+  const token = `${nonce}.${anonymousTokenMac(nonce, secret)}`;
+  setXsrfCookie(req, res, token);
+  return token;
+}
+
+function anonymousTokenMac(nonce: string, secret: string): string {
+  return createHmac('sha256', secret).update(`kinetwin anonymous csrf token\0${nonce}`, 'utf8').digest('base64url');
+}
+
+function setXsrfCookie(req: Request, res: Response, token: string): void {
+  // Secure whenever the request itself came over HTTPS, like the session cookie's 'auto'.
+  res.cookie(XSRF_COOKIE, token, { httpOnly: false, sameSite: 'strict', secure: req.secure, path: '/' });
 }
 
 /**

@@ -1,8 +1,8 @@
 import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import type { Database } from '../db/database';
-import { burnPasswordCheck, verifyPassword } from './passwords';
-import { findUserById, findUserWithHashByEmail, type AuthUser } from './user-store';
+import { burnPasswordCheck, checkPassword, hashPassword } from './passwords';
+import { findUserById, findUserWithHashByEmail, replacePasswordHash, type AuthUser } from './user-store';
 
 declare global {
   // eslint-disable-next-line @typescript-eslint/no-namespace
@@ -18,12 +18,17 @@ export function createPassport(db: Database): InstanceType<typeof Passport> {
     new LocalStrategy({ usernameField: 'email', passwordField: 'password' }, (email, password, done) => {
       findUserWithHashByEmail(db, email)
         .then(async (row) => {
+          // An unknown (or removed) e-mail costs one derivation at the current cost, like a wrong password.
           if (!row) {
             await burnPasswordCheck(password);
             return done(null, false);
           }
           const { passwordHash, ...user } = row;
-          return (await verifyPassword(password, passwordHash)) ? done(null, user) : done(null, false);
+          const check = await checkPassword(password, passwordHash);
+          if (!check.match) return done(null, false);
+          // The password is at hand only now: a legacy bcrypt hash (or an older cost) becomes scrypt.
+          if (check.rehash) await replacePasswordHash(db, user.id, passwordHash, await hashPassword(password));
+          return done(null, user);
         })
         .catch(done);
     }),

@@ -11,6 +11,7 @@ import { hashLinkToken, newLinkToken } from './link-tokens';
 import { hashPassword } from './passwords';
 import type { GuardedRouter } from './route-table';
 import { endUserSockets } from './session-revocation';
+import type { SignInLimits } from './sign-in-limits';
 import { startSession } from './session-start';
 import { findUserById, findUserWithHashByEmail } from './user-store';
 
@@ -21,13 +22,15 @@ export interface PasswordResetOptions {
   ttlMinutes: number;
   accountRequestLimit: number;
   windowMinutes: number;
+  /** Completing a reset ends the account's sign-in lockout. */
+  signInLimits: SignInLimits;
 }
 
 /** The same answer whether or not the address has an account: nothing about accounts leaks. */
 export const RESET_REQUESTED = 'If an account uses that address, a link to choose a new password is on its way.';
 
 /** Password reset by an e-mailed single-use link; completing it signs the user out everywhere. */
-export function passwordResetRoutes({ route }: GuardedRouter, { db, mailer, appBaseUrl, ttlMinutes, accountRequestLimit, windowMinutes }: PasswordResetOptions): void {
+export function passwordResetRoutes({ route }: GuardedRouter, { db, mailer, appBaseUrl, ttlMinutes, accountRequestLimit, windowMinutes, signInLimits }: PasswordResetOptions): void {
   route('post', '/request', 'public', accountRequestLimiter(accountRequestLimit, windowMinutes), async (req, res) => {
     const { email } = bodyOf(req, passwordResetRequestSchema, 'Enter the e-mail address of your account.');
     const user = await findUserWithHashByEmail(db, email);
@@ -42,7 +45,7 @@ export function passwordResetRoutes({ route }: GuardedRouter, { db, mailer, appB
 
   route('post', '/complete', 'public', async (req, res) => {
     const body = bodyOf(req, passwordResetCompleteSchema, 'The new password is not valid; nothing changed.');
-    const userId = await db.transaction(async (tx) => {
+    const { userId, email } = await db.transaction(async (tx) => {
       const [reset] = await tx
         .select({ id: passwordResets.id, userId: passwordResets.userId, expiresAt: passwordResets.expiresAt, usedAt: passwordResets.usedAt, email: users.email, deactivatedAt: users.deactivatedAt })
         .from(passwordResets)
@@ -64,9 +67,11 @@ export function passwordResetRoutes({ route }: GuardedRouter, { db, mailer, appB
         .update(passwordResets)
         .set({ usedAt: new Date() })
         .where(and(eq(passwordResets.userId, reset.userId), isNull(passwordResets.usedAt)));
-      return reset.userId;
+      return { userId: reset.userId, email: reset.email };
     });
     endUserSockets(req, userId);
+    // The owner proved the mailbox: a lockout an attacker caused ends here.
+    await signInLimits.clearAccount(email);
     await startSession(req, res, (await findUserById(db, userId))!, 200);
   });
 }

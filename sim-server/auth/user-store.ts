@@ -33,3 +33,14 @@ export async function findUserWithHashByEmail(db: Database, email: string): Prom
 export function toSessionUser(user: AuthUser): SessionUser {
   return { id: user.id, email: user.email, displayName: user.displayName, role: user.role };
 }
+
+/**
+ * Replaces a password hash with a new one of the current scheme, only if the stored hash is still
+ * the one just checked (a reset or a second sign-in may have replaced it meanwhile).
+ */
+export async function replacePasswordHash(db: Database, id: number, checkedHash: string, newHash: string): Promise<void> {
+  await db
+    .update(users)
+    .set({ passwordHash: newHash })
+    .where(and(eq(users.id, id), eq(users.passwordHash, checkedHash)));
+}

@@ -2,6 +2,7 @@ import os from 'node:os';
 import type { BenchResult } from './bench-result';
 import { benchClosedForm } from './closed-form-bench';
 import { benchLiveSessions } from './live-sessions-bench';
+import { benchSignIn } from './sign-in-bench';
 import { benchTwin } from './twin-bench';
 
 /**
@@ -19,6 +20,7 @@ async function main() {
     ['closed form', benchClosedForm],
     ['twin', benchTwin],
     ['live runs', () => benchLiveSessions(databaseUrl)],
+    ['sign-in', () => benchSignIn(databaseUrl)],
   ];
   const rows: [string, BenchResult][] = [];
   for (const [section, run] of sections) {
