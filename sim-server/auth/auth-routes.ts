@@ -59,7 +59,8 @@ export function authRoutes({ route }: GuardedRouter, { passport, db, signInLimit
     skipSuccessfulRequests: true,
     standardHeaders: 'draft-8',
     legacyHeaders: false,
-    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${String(req.body?.email ?? '').trim().toLowerCase()}`,
+    // Only a string e-mail is keyed: String() of a body object such as {"toString":1} throws.
+    keyGenerator: (req) => `${ipKeyGenerator(req.ip ?? '')}|${typeof req.body?.email === 'string' ? req.body.email.trim().toLowerCase() : ''}`,
     handler: limited(`Too many failed sign-in attempts. Try again in ${signInWindowMinutes} minutes.`),
   });
   const accountLimiter = accountRequestLimiter(accountRequestLimit, signInWindowMinutes);
