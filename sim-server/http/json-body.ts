@@ -20,10 +20,25 @@ export function hasBody(req: Request): boolean {
  * archive would otherwise go ahead on a body nobody read.
  */
 export const requireJsonBody: RequestHandler = (req, _res, next) => {
-  if (!hasBody(req) || req.is(JSON_MEDIA_TYPE)) return next();
+  if (!hasBody(req)) return next();
   const sent = req.get('content-type');
-  next(new AppError(415, 'unsupported_media_type', `The request body must be ${JSON_MEDIA_TYPE}${sent ? `, not ${sent.slice(0, 80)}` : ' (no Content-Type was sent)'}; nothing was changed.`));
+  if (!req.is(JSON_MEDIA_TYPE)) {
+    return next(new AppError(415, 'unsupported_media_type', `The request body must be ${JSON_MEDIA_TYPE}${sent ? `, not ${sent.slice(0, 80)}` : ' (no Content-Type was sent)'}; nothing was changed.`));
+  }
+  // body-parser takes any "utf-*" charset, UTF-7 among them (a known filter bypass); JSON between
+  // systems is UTF-8 only (RFC 8259 §8.1).
+  const charset = charsetOf(sent ?? '');
+  if (charset !== null && charset !== 'utf-8' && charset !== 'utf8') {
+    return next(new AppError(415, 'unsupported_charset', `The request body's charset ${JSON.stringify(charset.slice(0, 40))} is not accepted; send UTF-8.`));
+  }
+  next();
 };
+
+/** The charset parameter of a Content-Type, lower-cased, or null when there is none (RFC 9110 §8.3.2). */
+export function charsetOf(contentType: string): string | null {
+  const found = /;\s*charset\s*=\s*(?:"([^"]*)"|([^;\s]*))/i.exec(contentType);
+  return found ? (found[1] ?? found[2] ?? '').toLowerCase() : null;
+}
 
 /**
  * The API's body parsing: a JSON body or none, at most `limit`, UTF-8 and uncompressed. Content
