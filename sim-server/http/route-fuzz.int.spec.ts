@@ -14,7 +14,7 @@ import { snapshotTables } from '../testing/table-snapshot';
  */
 const FUZZ_SEED = 90_216;
 /** Cases per route and identity; about 40 routes × 2 identities keeps the file to a few seconds. */
-const RUNS_PER_ROUTE = 8;
+const RUNS_PER_ROUTE = 6;
 
 /**
  * Session state that changes without any fuzz damage: anonymous GET /api/auth/csrf and signing
