@@ -26,6 +26,10 @@ import type { DatabaseHandle } from './db/database';
 import { DEMO_ACCOUNTS } from './db/seed-demo';
 import { appInfoRoute, healthRoutes } from './health/health-routes';
 import { apiNotFound, errorHandler } from './http/error-handler';
+import { jsonBody } from './http/json-body';
+import { noStore } from './http/no-store';
+import { refuseMalformedPath } from './http/path-encoding';
+import { refuseUnsafeText } from './http/refuse-unsafe-text';
 import type { Logger } from './logging/logger';
 import { scenarioActivityRoutes, teamActivityRoutes } from './library/activity-routes';
 import { commentRoutes } from './library/comment-routes';
@@ -133,7 +137,8 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
   };
 
   const api = express.Router();
-  api.use(express.json({ limit: MAX_JSON_BODY }));
+  // Input guards (sim-server/http/): no caching, paths that decode, JSON bodies only, storable text.
+  api.use(noStore, refuseMalformedPath(table.routes), ...jsonBody(MAX_JSON_BODY), refuseUnsafeText);
   api.use('/health', healthRoutes(database.pool, version));
   api.use('/app-info', appInfoRoute(info));
   api.use(sessionMiddleware, passport.initialize(), passport.session());

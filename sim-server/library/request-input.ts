@@ -1,6 +1,6 @@
 import type { Request } from 'express';
 import type { z } from 'zod';
-import { queryIdField } from '../../shared/protocol/library-api';
+import { MAX_ID, queryIdField } from '../../shared/protocol/library-api';
 import { parseWith } from '../../shared/validation/field-errors';
 import { AppError } from '../http/app-error';
 
@@ -8,7 +8,10 @@ import { AppError } from '../http/app-error';
 export function idParam(req: Request, name: string, what: string): number {
   const raw = String(req.params[name] ?? '');
   const parsed = queryIdField(name).safeParse(/^\d+$/.test(raw) ? raw : Number.NaN);
-  if (!parsed.success) throw AppError.badRequest(`"${raw.slice(0, 40)}" is not a ${what} (a positive whole number).`);
+  if (!parsed.success) {
+    const message = `"${raw.slice(0, 40)}" is not a ${what} (a positive whole number up to ${MAX_ID}).`;
+    throw AppError.badRequest(message, [{ field: name, message }]);
+  }
   return parsed.data;
 }
 
