@@ -17,11 +17,10 @@ const FUZZ_SEED = 90_216;
 const RUNS_PER_ROUTE = 6;
 
 /**
- * Session state that changes without any fuzz damage: anonymous GET /api/auth/csrf and signing
- * the spare member in again each store a session row (issue 16 §4 covers the former), and the
- * spare's sign-out-everywhere, which takes no body, raises its session generation.
+ * State that changes without any fuzz damage: signing the spare member in again stores a session
+ * row, the spare's sign-out-everywhere (which takes no body) raises its session generation, and
+ * failed sign-ins among the fuzzed bodies count against the sign-in limits by design.
  */
-// Failed sign-ins among the fuzzed bodies count against the limits by design; those counters are not damage.
 const NOT_FUZZ_DAMAGE = { tables: ['session', 'sign_in_limits'], columns: { users: ['session_generation'] } };
 
 /** Routes that end the session they run in; they run as a spare member, signed in again after. */
