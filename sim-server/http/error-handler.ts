@@ -2,12 +2,14 @@ import type { ErrorRequestHandler, RequestHandler } from 'express';
 import type { ApiErrorBody } from '../../shared/protocol/api-types';
 import type { Logger } from '../logging/logger';
 import { AppError } from './app-error';
+import { databaseUnavailableError } from './database-unavailable';
 
 /** The one error handler, registered last: AppErrors answer as themselves, the rest as 500. */
 export function errorHandler(logger: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
     let body: ApiErrorBody;
     let status: number;
+    err = databaseUnavailableError(err) ?? err;
     if (err instanceof AppError) {
       status = err.status;
       body = { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } };
