@@ -1,5 +1,6 @@
 import os from 'node:os';
 import type { BenchResult } from './bench-result';
+import { benchChecks } from './checks-bench';
 import { benchClosedForm } from './closed-form-bench';
 import { benchLiveSessions } from './live-sessions-bench';
 import { benchTwin } from './twin-bench';
@@ -19,6 +20,7 @@ async function main() {
     ['closed form', benchClosedForm],
     ['twin', benchTwin],
     ['live runs', () => benchLiveSessions(databaseUrl)],
+    ['checks', () => benchChecks(databaseUrl)],
   ];
   const rows: [string, BenchResult][] = [];
   for (const [section, run] of sections) {
