@@ -10,5 +10,8 @@ export default defineConfig({
     fileParallelism: false,
     testTimeout: 60_000,
     hookTimeout: 60_000,
+    // expect.poll waits 1 s by default, a speed threshold in disguise: a busy machine drawing the
+    // 3D view in software can take longer to show what the test waits for. A guard, not a goal.
+    expect: { poll: { timeout: 20_000 } },
   },
 });

@@ -1,5 +1,6 @@
 import os from 'node:os';
 import type { BenchResult } from './bench-result';
+import { benchChecks } from './checks-bench';
 import { benchClosedForm } from './closed-form-bench';
 import { benchLiveSessions } from './live-sessions-bench';
 import { benchSignIn } from './sign-in-bench';
@@ -21,6 +22,7 @@ async function main() {
     ['twin', benchTwin],
     ['live runs', () => benchLiveSessions(databaseUrl)],
     ['sign-in', () => benchSignIn(databaseUrl)],
+    ['checks', () => benchChecks(databaseUrl)],
   ];
   const rows: [string, BenchResult][] = [];
   for (const [section, run] of sections) {

@@ -2,6 +2,7 @@ import type { ErrorRequestHandler, RequestHandler, Response } from 'express';
 import type { ApiErrorBody } from '../../shared/protocol/api-types';
 import type { Logger } from '../logging/logger';
 import { AppError } from './app-error';
+import { databaseUnavailableError } from './database-unavailable';
 
 interface ClientFault {
   status: number;
@@ -61,6 +62,7 @@ function send(res: Response, status: number, body: ApiErrorBody): void {
 /** The one error handler, registered last: AppErrors and client faults answer as themselves, the rest as 500. */
 export function errorHandler(logger: Logger): ErrorRequestHandler {
   return (err, req, res, _next) => {
+    err = databaseUnavailableError(err) ?? err;
     if (err instanceof AppError) {
       send(res, err.status, { error: { code: err.code, message: err.message, ...(err.fields ? { fields: err.fields } : {}) } });
       return;
