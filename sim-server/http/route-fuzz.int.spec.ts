@@ -158,7 +158,7 @@ describe('route fuzzing: every route, hostile ids, queries and bodies, as an adm
   let realIds: Record<string, string>;
 
   beforeAll(async () => {
-    t = await startTestServer({ SIGN_IN_LIMIT: '100000', ACCOUNT_REQUEST_LIMIT: '100000' });
+    t = await startTestServer({ SIGN_IN_LIMIT: '1000', SIGN_IN_ADDRESS_LIMIT: '100000', ACCOUNT_REQUEST_LIMIT: '100000' });
     const team = await createTestTeam(t, 'Fuzz lab', ['viewer']);
     admin = team.members.admin;
     spare = team.extra[0]!;

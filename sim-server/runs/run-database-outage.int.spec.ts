@@ -78,7 +78,7 @@ describe('a database that stops answering while a run is live', () => {
 
   const ask = (event: string, payload: unknown) => new Promise<Ack<unknown>>((resolve) => (client.emit as (e: string, p: unknown, cb: (a: Ack<unknown>) => void) => void)(event, payload, resolve));
 
-  it('keeps the run streaming, answers each event that needs a session check with a clear error, and serves again once the database is back', async () => {
+  it('keeps the run streaming and steerable, refuses a new start with a clear error, and serves again once the database is back', async () => {
     const frames: RunFrame[] = [];
     client.on('run:frame', (f) => frames.push(f));
     const started = await ask('run:start', { scenarioId, speed: 0.1 });
@@ -87,10 +87,12 @@ describe('a database that stops answering while a run is live', () => {
     await new Promise((resolve) => client.once('run:frame', resolve));
 
     relay.cut();
+    // Reading the team's library needs a session checked now; steering the run already going does not.
     const unchecked = { status: 'error', errors: [{ field: '', message: SESSION_UNCHECKED_MESSAGE }] };
-    expect(await ask('run:pause', { runId })).toEqual(unchecked);
     expect(await ask('run:start', { scenarioId, speed: 0 })).toEqual(unchecked);
-    // The run was neither paused nor replaced: frames of it keep coming while the database is away.
+    expect(await ask('run:pause', { runId })).toMatchObject({ status: 'ok', data: { runId, state: 'paused' } });
+    expect(await ask('run:resume', { runId })).toMatchObject({ status: 'ok', data: { runId, state: 'running' } });
+    // The run was not replaced: frames of it keep coming while the database is away.
     const framesDuringOutage = frames.length;
     await new Promise((resolve) => client.once('run:frame', resolve));
     expect(frames.length).toBeGreaterThan(framesDuringOutage);
@@ -99,5 +101,6 @@ describe('a database that stops answering while a run is live', () => {
 
     relay.restore();
     expect(await ask('run:pause', { runId })).toMatchObject({ status: 'ok', data: { runId, state: 'paused' } });
+    expect(await ask('run:stop', { runId })).toMatchObject({ status: 'ok', data: { runId } });
   });
 });

@@ -10,6 +10,12 @@ export type EventHandler = (request: unknown, user: AuthUser) => Ack<unknown> | 
 export interface EventPipeline {
   /** Every event the socket takes, by name. */
   events: Readonly<Record<string, EventHandler>>;
+  /**
+   * Events that only steer a run this socket already holds (stop, pause, …) and read no team data.
+   * When the database cannot answer their session check they go ahead as the user last verified
+   * on this socket, so a run can always be stopped; an ended session still refuses them.
+   */
+  ownRunControls: ReadonlySet<string>;
   /** The socket's session and membership as they are now (session-revocation.ts). */
   check(): Promise<SessionCheck>;
   /** Hears every refusal, with the payload it answered (the run namespace mirrors them as run:error). */
@@ -18,7 +24,7 @@ export interface EventPipeline {
   revoked(): void;
   /** A handler threw (a bug or a database failure); the client has been answered. */
   failed(event: string, error: unknown): void;
-  /** The database did not answer the session check; the client has been answered. */
+  /** The database did not answer the session check; the event was refused, or went ahead as a control of the socket's own run. */
   unchecked(event: string, error: unknown): void;
 }
 
@@ -47,7 +53,8 @@ export function splitAck(args: unknown[]): { request: unknown; reply: (response:
  * error naming it, a known one after its session check (started at once, so checks of a burst
  * overlap) and then its handler (run one at a time, so a pause sent before a scrub lands first).
  * A session found ended is answered and then revoked; a check the database could not answer
- * is answered as such, and nothing else on the socket (a live run) is touched.
+ * is answered as such (except for the controls of the socket's own run, which go ahead as the
+ * user last verified), and nothing else on the socket (a live run) is touched.
  */
 export function answerEvents(socket: Socket, pipeline: EventPipeline): void {
   const known = Object.keys(pipeline.events);
@@ -62,6 +69,8 @@ export function answerEvents(socket: Socket, pipeline: EventPipeline): void {
   });
 
   let tail: Promise<void> = Promise.resolve();
+  /** The user as the last successful check found them. */
+  let verified: AuthUser | null = null;
   for (const [event, handle] of Object.entries(pipeline.events)) {
     socket.on(event, (...args: unknown[]) => {
       const { request, reply } = splitAck(args);
@@ -73,18 +82,23 @@ export function answerEvents(socket: Socket, pipeline: EventPipeline): void {
         };
         const session = await checked;
         if (session.status === 'revoked') {
+          verified = null;
           refuse([{ field: '', message: SESSION_ENDED_MESSAGE }]);
           return pipeline.revoked();
         }
+        let user: AuthUser;
         if (session.status === 'unavailable') {
           pipeline.unchecked(event, session.error);
-          return refuse([{ field: '', message: SESSION_UNCHECKED_MESSAGE }]);
+          if (!verified || !pipeline.ownRunControls.has(event)) return refuse([{ field: '', message: SESSION_UNCHECKED_MESSAGE }]);
+          user = verified;
+        } else {
+          user = verified = session.user;
         }
         // Every event here takes an object; without one the answer says so, not "value is required".
         if (request === undefined) return refuse(missingPayload(event));
         let response: Ack<unknown>;
         try {
-          response = await handle(request, session.user);
+          response = await handle(request, user);
         } catch (error) {
           pipeline.failed(event, error);
           return refuse(SERVER_ERROR);

@@ -42,6 +42,9 @@ export const RUN_ACCESS = { stored: 'scenario.read', inline: 'bench.check' } as 
  */
 export const SESSION_RECHECK_MS = 5000;
 
+/** The events that steer the socket's own run and read no team data (see EventPipeline.ownRunControls). */
+const OWN_RUN_CONTROLS: ReadonlySet<RunClientEvent> = new Set(['run:stop', 'run:pause', 'run:resume', 'run:speed', 'run:scrub', 'run:kick']);
+
 export interface RunHandlerDeps {
   db: Database;
   logger: Logger;
@@ -115,11 +118,12 @@ export function registerRunHandlers(nsp: RunNamespace, deps: RunHandlerDeps): Ru
     };
     answerEvents(socket, {
       events,
+      ownRunControls: OWN_RUN_CONTROLS,
       check: () => checkSocketSession(db, ref, checkTimeout),
       refused: (request, errors) => socket.emit('run:error', { runId: runIdOf(request), errors }),
       revoked: () => socket.disconnect(true),
       failed: (event, err) => logger.error({ err, event, userId: ref.userId }, 'run event failed'),
-      unchecked: (event, err) => logger.warn({ err, event, userId: ref.userId }, 'run event refused: the session could not be checked'),
+      unchecked: (event, err) => logger.warn({ err, event, userId: ref.userId }, 'run event: the session could not be checked (only controls of the socket’s own run go ahead)'),
     });
 
     socket.on('disconnect', () => {
