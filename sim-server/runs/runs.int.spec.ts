@@ -80,7 +80,11 @@ describe('live runs over real sockets', () => {
     const started = performance.now();
     const ack = await start(client, { scenarioId: scenarioIds[0], speed: 1 });
     if (ack.status !== 'ok') throw new Error(JSON.stringify(ack));
-    await new Promise((r) => setTimeout(r, 300));
+    // Wait on frames, not on a sleep: a busy machine may deliver them late, never early.
+    await new Promise<void>((resolve) => {
+      let seen = 0;
+      client.on('run:frame', () => ++seen === 4 && resolve());
+    });
     const stopAck = await new Promise<Ack<{ runId: string }>>((resolve) => client.emit('run:stop', { runId: ack.data.runId }, resolve));
     expect(stopAck.status).toBe('ok');
     const { frames, end } = await done;
@@ -88,8 +92,8 @@ describe('live runs over real sockets', () => {
     const wall = (performance.now() - started) / 1000;
     // Real time: the run cannot be far ahead of the wall clock (one frame interval of slack).
     expect(end.simulatedTime).toBeLessThanOrEqual(wall + 0.1);
-    expect(end.simulatedTime).toBeGreaterThan(0.1);
-    expect(frames.length).toBeGreaterThan(3);
+    expect(end.simulatedTime).toBeGreaterThan(0);
+    expect(frames.length).toBeGreaterThanOrEqual(4);
   });
 
   it('answers an invalid inline scenario with field errors and keeps serving other clients', async () => {
@@ -292,7 +296,6 @@ describe('live runs over real sockets', () => {
     expect(ack.status).toBe('ok');
     const before = t.server.liveRuns();
     client.disconnect();
-    await new Promise((r) => setTimeout(r, 100));
-    expect(t.server.liveRuns()).toBe(before - 1);
+    await expect.poll(() => t.server.liveRuns(), { timeout: 20_000 }).toBe(before - 1);
   });
 });
