@@ -45,22 +45,20 @@ export function passwordResetRoutes({ route }: GuardedRouter, { db, mailer, appB
 
   route('post', '/complete', 'public', async (req, res) => {
     const body = bodyOf(req, passwordResetCompleteSchema, 'The new password is not valid; nothing changed.');
+    const tokenHash = hashLinkToken(body.token);
+    // Checked after the link so a weak password does not use the link up.
+    const link = usableResetLink(await readResetLink(db, tokenHash, false));
+    const weak = passwordProblem(body.password, link.email);
+    if (weak) throw AppError.badRequest(`The password is too weak: ${weak}.`, [{ field: 'password', message: weak }]);
+    // Hashed before the transaction: a hash may wait behind others, and must not hold a pooled
+    // connection and a row lock while it does.
+    const passwordHash = await hashPassword(body.password);
     const { userId, email } = await db.transaction(async (tx) => {
-      const [reset] = await tx
-        .select({ id: passwordResets.id, userId: passwordResets.userId, expiresAt: passwordResets.expiresAt, usedAt: passwordResets.usedAt, email: users.email, deactivatedAt: users.deactivatedAt })
-        .from(passwordResets)
-        .innerJoin(users, eq(users.id, passwordResets.userId))
-        .where(eq(passwordResets.tokenHash, hashLinkToken(body.token)))
-        .for('update', { of: passwordResets });
-      if (!reset || reset.deactivatedAt) throw new AppError(400, 'invalid_token', 'This password-reset link is not valid. Ask for a new one.', [{ field: 'token', message: 'not a valid password-reset link' }]);
-      if (reset.usedAt) throw new AppError(410, 'token_used', 'This password-reset link has already been used. Ask for a new one.');
-      if (reset.expiresAt.getTime() <= Date.now()) throw new AppError(410, 'token_expired', 'This password-reset link has expired. Ask for a new one.');
-      // Checked after the link so a weak password does not use the link up.
-      const weak = passwordProblem(body.password, reset.email);
-      if (weak) throw AppError.badRequest(`The password is too weak: ${weak}.`, [{ field: 'password', message: weak }]);
+      // Read again under the lock: a second use of the same link in the meantime finds it used.
+      const reset = usableResetLink(await readResetLink(tx, tokenHash, true));
       await tx
         .update(users)
-        .set({ passwordHash: await hashPassword(body.password), sessionGeneration: sql`${users.sessionGeneration} + 1` })
+        .set({ passwordHash, sessionGeneration: sql`${users.sessionGeneration} + 1` })
         .where(eq(users.id, reset.userId));
       // Every outstanding link of the user ends with this one.
       await tx
@@ -74,4 +72,33 @@ export function passwordResetRoutes({ route }: GuardedRouter, { db, mailer, appB
     await signInLimits.clearAccount(email);
     await startSession(req, res, (await findUserById(db, userId))!, 200);
   });
+}
+
+interface ResetLink {
+  userId: number;
+  email: string;
+  expiresAt: Date;
+  usedAt: Date | null;
+  deactivatedAt: Date | null;
+}
+
+type Reader = Pick<Database, 'select'>;
+
+/** The link with this token hash and its account, locked for the transaction when `lock`. */
+async function readResetLink(db: Reader, tokenHash: string, lock: boolean): Promise<ResetLink | undefined> {
+  const query = db
+    .select({ userId: passwordResets.userId, expiresAt: passwordResets.expiresAt, usedAt: passwordResets.usedAt, email: users.email, deactivatedAt: users.deactivatedAt })
+    .from(passwordResets)
+    .innerJoin(users, eq(users.id, passwordResets.userId))
+    .where(eq(passwordResets.tokenHash, tokenHash));
+  const [row] = lock ? await query.for('update', { of: passwordResets }) : await query;
+  return row;
+}
+
+/** The link if it can still be used, else the error that says why not. */
+function usableResetLink(reset: ResetLink | undefined): ResetLink {
+  if (!reset || reset.deactivatedAt) throw new AppError(400, 'invalid_token', 'This password-reset link is not valid. Ask for a new one.', [{ field: 'token', message: 'not a valid password-reset link' }]);
+  if (reset.usedAt) throw new AppError(410, 'token_used', 'This password-reset link has already been used. Ask for a new one.');
+  if (reset.expiresAt.getTime() <= Date.now()) throw new AppError(410, 'token_expired', 'This password-reset link has expired. Ask for a new one.');
+  return reset;
 }
