@@ -21,7 +21,7 @@ export const USAGE = `usage:
   kinetwin check FILE
       poles, theorem verdicts, step metrics, superposition and shift checks and the linear range
       as JSON; exit 1 when the scenario's limits are not met
-exit codes: 0 ok, 1 limits not met (check), 2 invalid input`;
+exit codes: 0 ok, 1 limits not met (check), 2 invalid input, 3 the twin stopped at a bound (rows up to there printed)`;
 
 /**
  * Parses the kinetwin command line (arguments after the script name). Errors name the argument.

@@ -48,6 +48,8 @@ const files = {
     nonlinear: { torqueLimit: 2 },
   }),
   'encoder-continuous.json': JSON.stringify({ ...scenario, controller: { mode: 'pid', kp: 2 }, inputs: [], nonlinear: { encoderCounts: 1024 } }),
+  // s³ + s + 10 = (s + 2)(s² − 2s + 5): poles −2 and 1 ± 2i, so the angle grows like e^t.
+  'runaway.json': JSON.stringify({ ...scenario, joint: { inertia: 1, damping: 0, stiffness: 0 }, controller: { mode: 'pid', kp: 1, ki: 10 }, initial: { angle: 0.1, velocity: 0 }, inputs: [], horizon: 100 }),
   'nolimits.json': JSON.stringify({ ...scenario, inputs: [{ channel: 'torque', shape: 'sine', amplitude: 1, frequency: 1 }] }),
 };
 
@@ -119,6 +121,22 @@ describe('runCli', () => {
     const doc = JSON.parse(json.out());
     expect(doc).toMatchObject({ method: 'both', twinStop: null, t: [0, 0.5, 1, 1.5, 2] });
     expect(doc.residual).toHaveLength(5);
+  });
+
+  it('exits 3 when the twin stops at a bound, naming the bound and the time, with the samples up to there', async () => {
+    for (const method of ['sim', 'both']) {
+      const m = memoryIo(files);
+      expect(await runCli(['response', 'runaway.json', '--method', method, '--dt', '0.1'], m.io)).toBe(3);
+      expect(m.err()).toMatch(/stopped early at t = \d+\.\d{4} s of 100 s: angle left ±\S+ rad at t = /);
+      const rows = m.out().trim().split('\n').slice(1);
+      const stoppedAt = Number(/stopped early at t = (\S+) s/.exec(m.err())![1]);
+      expect(rows.length).toBeGreaterThan(10);
+      expect(Number(rows.at(-1)!.split(',')[0])).toBeLessThanOrEqual(stoppedAt);
+      expect(rows.every((r) => !r.includes('NaN'))).toBe(true);
+    }
+    // The closed form alone has no bound to hit: the same file prints every row and exits 0.
+    const closed = memoryIo(files);
+    expect(await runCli(['response', 'runaway.json', '--dt', '1'], closed.io)).toBe(0);
   });
 
   it('check reports superposition, shift and the linear range, and explains a torque limit', async () => {

@@ -2,7 +2,7 @@ import { parseScenarioText } from '../../shared/scenario/parse-scenario';
 import { describeFieldErrors, type FieldError } from '../../shared/validation/field-errors';
 import { twinScenarioErrors } from '../../shared/twin/twin-scenario-errors';
 import { DEFAULT_RESPONSE_DT, parseCliArguments, USAGE } from './cli-arguments';
-import { checkReport, EXIT_INVALID_INPUT, EXIT_OK } from './check-command';
+import { checkReport, EXIT_INVALID_INPUT, EXIT_OK, EXIT_TWIN_STOPPED } from './check-command';
 import { checkGridSize, responseChunks } from './response-command';
 import { solveByMethod } from './response-sources';
 
@@ -17,7 +17,8 @@ export interface CliIo {
 /**
  * Runs `kinetwin` with the given arguments and returns the exit code: 0 ok, 1 limits not met
  * (check), 2 invalid input — arguments, an unreadable file, or a scenario the engine refuses,
- * reported with the field and the reason on stderr (and as JSON on stdout for check).
+ * reported with the field and the reason on stderr (and as JSON on stdout for check) — and 3
+ * when the twin stopped at a bound before the horizon: a truncated trace is not a success.
  */
 export async function runCli(argv: readonly string[], io: CliIo): Promise<number> {
   const args = parseCliArguments(argv);
@@ -54,8 +55,9 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
   if (!chunks.ok) return invalid(io, 'invalid arguments', chunks.errors, false);
   for (const chunk of chunks.value) await io.writeOut(chunk);
   const stop = solved.value.twin?.stop;
-  if (stop) io.writeErr(`kinetwin: the twin stopped early: ${stop.message}\n`);
-  return EXIT_OK;
+  if (!stop) return EXIT_OK;
+  io.writeErr(`kinetwin: the twin stopped early at t = ${stop.time.toFixed(4)} s of ${scenario.value.horizon} s: ${stop.message}; the samples up to there are printed\n`);
+  return EXIT_TWIN_STOPPED;
 }
 
 async function invalid(io: CliIo, what: string, errors: FieldError[], asJson: boolean, extra = ''): Promise<number> {
