@@ -2,15 +2,10 @@ import { monitorEventLoopDelay, performance } from 'node:perf_hooks';
 import { slowWrist } from '../checks/testing/slow-wrist';
 import { createTestTeam, demoScenarioDocument, startTestServer, type TestMember } from '../testing/test-server';
 import type { BenchResult } from './bench-result';
+import { median } from './bench-timing';
 
 /** The time limit the stop figures run under, ms (the checks tests once asserted 2–4 s for it). */
 const STOP_LIMIT_MS = 2000;
-
-function median(xs: number[]): number {
-  const sorted = [...xs].sort((a, b) => a - b);
-  const mid = Math.floor(sorted.length / 2);
-  return sorted.length % 2 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2;
-}
 
 async function timedCheck(member: TestMember, scenario: unknown): Promise<{ status: number; ms: number }> {
   const started = performance.now();

@@ -1,8 +1,8 @@
-import { performance } from 'node:perf_hooks';
 import { parseScenario } from '../../shared/scenario/parse-scenario';
 import { type Scenario } from '../../shared/scenario/scenario-schema';
 import { compileResponsePlan, evaluateUniformGrid, invertScenario, solveClosedForm } from '../../shared/closed-form/index';
 import { type BenchResult } from './bench-result';
+import { median, timeRuns } from './bench-timing';
 
 /** The benchmark scenario: a geared PID joint with a filtered derivative and four input terms, two delayed (invented demo values). */
 export const BENCH_SCENARIO = {
@@ -27,24 +27,6 @@ const WARM_UP_RUNS = 200;
 const TIMED_RUNS = 2000;
 const EVAL_WARM_UP_RUNS = 50;
 const EVAL_TIMED_RUNS = 400;
-
-function median(values: number[]): number {
-  const sorted = values.slice().sort((a, b) => a - b);
-  const mid = sorted.length >> 1;
-  return sorted.length % 2 ? sorted[mid]! : (sorted[mid - 1]! + sorted[mid]!) / 2;
-}
-
-/** Times fn once per run after warm-up; returns per-run milliseconds. */
-function timeRuns(fn: () => void, warmUp: number, runs: number): number[] {
-  for (let i = 0; i < warmUp; i++) fn();
-  const times: number[] = [];
-  for (let i = 0; i < runs; i++) {
-    const t0 = performance.now();
-    fn();
-    times.push(performance.now() - t0);
-  }
-  return times;
-}
 
 /**
  * Closed-form benchmark: median time to build and invert the four-term PID scenario (transfer

@@ -2,6 +2,7 @@ import os from 'node:os';
 import type { BenchResult } from './bench-result';
 import { benchChecks } from './checks-bench';
 import { benchClosedForm } from './closed-form-bench';
+import { benchFrequency } from './frequency-bench';
 import { benchLiveSessions } from './live-sessions-bench';
 import { benchSignIn } from './sign-in-bench';
 import { benchTwin } from './twin-bench';
@@ -19,6 +20,7 @@ async function main() {
   const started = new Date();
   const sections: [string, () => Promise<BenchResult[]>][] = [
     ['closed form', benchClosedForm],
+    ['frequency', benchFrequency],
     ['twin', benchTwin],
     ['live runs', () => benchLiveSessions(databaseUrl)],
     ['sign-in', () => benchSignIn(databaseUrl)],

@@ -1,4 +1,5 @@
 import { parseArgs } from 'node:util';
+import { DEFAULT_FREQUENCY_GRID } from '../../shared/frequency/frequency-grid';
 import { type FieldError, type Parsed } from '../../shared/validation/field-errors';
 
 /** Output spacing of `kinetwin response` when --dt is not given, s. */
@@ -12,7 +13,12 @@ export type ResponseMethod = (typeof RESPONSE_METHODS)[number];
 export type CliCommand =
   | { command: 'response'; file: string; dt: number; format: ResponseFormat; method: ResponseMethod }
   | { command: 'check'; file: string; method: ResponseMethod }
+  | { command: 'frequency'; file: string; from: number; to: number; points: number; format: ResponseFormat }
   | { command: 'help' };
+
+const COMMANDS = ['response', 'check', 'frequency'] as const;
+/** Options that belong to one command only; the others refuse them by name. */
+const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points'] } as const;
 
 export const USAGE = `usage:
   kinetwin response FILE [--dt 0.001] [--format csv|json] [--method closed-form|sim|both]
@@ -21,6 +27,9 @@ export const USAGE = `usage:
   kinetwin check FILE
       poles, theorem verdicts, step metrics, superposition and shift checks and the linear range
       as JSON; exit 1 when the scenario's limits are not met
+  kinetwin frequency FILE [--from 0.1] [--to 1000] [--points 200] [--format csv|json]
+      magnitude (dB) and phase (degrees) of the loop, reference-to-angle and torque-to-angle on
+      log-spaced rad/s, with gain and phase margins, crossovers, bandwidth and the verdicts
 exit codes: 0 ok, 1 limits not met (check), 2 invalid input, 3 the twin stopped at a bound (rows up to there printed)`;
 
 /**
@@ -38,6 +47,9 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
         dt: { type: 'string' },
         format: { type: 'string' },
         method: { type: 'string' },
+        from: { type: 'string' },
+        to: { type: 'string' },
+        points: { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -48,16 +60,22 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   }
   const { values, positionals } = parsed;
   if (values['help'] || positionals[0] === 'help') return { ok: true, value: { command: 'help' } };
-  if (positionals.length === 0) return fail('command', 'a command is needed: "response" or "check"');
+  if (positionals.length === 0) return fail('command', 'a command is needed: "response", "check" or "frequency"');
   const [command, file, ...extra] = positionals;
-  if (command !== 'response' && command !== 'check') return fail('command', `unknown command "${command}": use "response" or "check"`);
-  if (file === undefined) return fail('FILE', `${command} needs a scenario FILE`);
+  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use "response", "check" or "frequency"`);
+  const name = command as (typeof COMMANDS)[number];
+  if (file === undefined) return fail('FILE', `${name} needs a scenario FILE`);
   if (extra.length > 0) return fail('', `unexpected argument "${extra[0]}"`);
-  if (command === 'check') {
-    const stray = (['dt', 'format', 'method'] as const).find((k) => values[k] !== undefined);
-    if (stray) return fail(`--${stray}`, `--${stray} belongs to "response", not "check"`);
-    return { ok: true, value: { command, file, method: 'closed-form' } };
+  for (const other of COMMANDS) {
+    if (other === name) continue;
+    const stray = (OWN_OPTIONS[other] as readonly string[]).find((k) => values[k] !== undefined && !(OWN_OPTIONS[name] as readonly string[]).includes(k));
+    if (stray) return fail(`--${stray}`, `--${stray} belongs to "${other}", not "${name}"`);
   }
+  if (name === 'check') {
+    if (values['format'] !== undefined) return fail('--format', '--format belongs to "response" and "frequency", not "check"');
+    return { ok: true, value: { command: name, file, method: 'closed-form' } };
+  }
+  if (name === 'frequency') return frequencyCommand(file, values);
   const errors: FieldError[] = [];
   let dt = DEFAULT_RESPONSE_DT;
   if (values['dt'] !== undefined) {
@@ -70,7 +88,25 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   const method = (values['method'] ?? 'closed-form') as string;
   if (!(RESPONSE_METHODS as readonly string[]).includes(method)) errors.push({ field: '--method', message: `--method must be closed-form, sim or both, got "${method}"` });
   if (errors.length > 0) return { ok: false, errors };
-  return { ok: true, value: { command, file, dt, format: format as ResponseFormat, method: method as ResponseMethod } };
+  return { ok: true, value: { command: 'response', file, dt, format: format as ResponseFormat, method: method as ResponseMethod } };
+}
+
+function frequencyCommand(file: string, values: Record<string, unknown>): Parsed<CliCommand> {
+  const errors: FieldError[] = [];
+  const numberOption = (key: 'from' | 'to' | 'points', fallback: number): number => {
+    if (values[key] === undefined) return fallback;
+    const text = String(values[key]);
+    const x = Number(text);
+    if (text.trim() === '' || !Number.isFinite(x)) errors.push({ field: `--${key}`, message: `--${key} must be a number, got "${text}"` });
+    return x;
+  };
+  const from = numberOption('from', DEFAULT_FREQUENCY_GRID.from);
+  const to = numberOption('to', DEFAULT_FREQUENCY_GRID.to);
+  const points = numberOption('points', DEFAULT_FREQUENCY_GRID.points);
+  const format = (values['format'] ?? 'csv') as string;
+  if (!(RESPONSE_FORMATS as readonly string[]).includes(format)) errors.push({ field: '--format', message: `--format must be csv or json, got "${format}"` });
+  if (errors.length > 0) return { ok: false, errors };
+  return { ok: true, value: { command: 'frequency', file, from, to, points, format: format as ResponseFormat } };
 }
 
 function fail(field: string, message: string): { ok: false; errors: FieldError[] } {

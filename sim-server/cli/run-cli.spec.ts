@@ -139,6 +139,46 @@ describe('runCli', () => {
     expect(await runCli(['response', 'runaway.json', '--dt', '1'], closed.io)).toBe(0);
   });
 
+  it('frequency prints JSON under the stable keys and CSV with one row per frequency, the verdicts on stderr', async () => {
+    const json = memoryIo(files);
+    expect(await runCli(['frequency', 'limited.json', '--from', '0.1', '--to', '100', '--points', '31', '--format', 'json'], json.io)).toBe(0);
+    const doc = JSON.parse(json.out());
+    expect(Object.keys(doc)).toEqual(['frequency', 'loop', 'referenceToAngle', 'torqueToAngle', 'margins', 'stability', 'notes', 'delayModel']);
+    expect(doc.frequency).toHaveLength(31);
+    expect(doc.frequency[0]).toBe(0.1);
+    expect(doc.frequency[30]).toBe(100);
+    for (const path of ['loop', 'referenceToAngle', 'torqueToAngle']) {
+      expect(doc[path].magnitudeDb).toHaveLength(31);
+      expect(doc[path].phaseDeg).toHaveLength(31);
+    }
+    expect(Object.keys(doc.margins)).toEqual(['gainMarginDb', 'phaseCrossover', 'phaseMarginDeg', 'gainCrossover', 'bandwidth']);
+    expect(doc.stability).toBe('stable');
+    expect(doc.notes).toContain("the linear model's response: the torque limit is not in it");
+    expect(json.err()).toBe('');
+
+    const csv = memoryIo(files);
+    expect(await runCli(['frequency', 'ok.json', '--points', '5'], csv.io)).toBe(0);
+    const rows = csv.out().trim().split('\n');
+    expect(rows[0]).toBe('frequency,loopMagnitudeDb,loopPhaseDeg,referenceToAngleMagnitudeDb,referenceToAnglePhaseDeg,torqueToAngleMagnitudeDb,torqueToAnglePhaseDeg');
+    expect(rows).toHaveLength(6);
+    // Open loop: no loop and no reference path, so those cells are empty; the plant's are numbers.
+    expect(rows[1]!.split(',').map((c) => c !== '')).toEqual([true, false, false, false, false, true, true]);
+    expect(csv.err()).toMatch(/^kinetwin: open loop: there is no feedback/);
+  });
+
+  it.each([
+    [['frequency', 'ok.json', '--points', '1'], '--points'],
+    [['frequency', 'ok.json', '--from', '10', '--to', '1'], '--to'],
+    [['frequency', 'ok.json', '--from', 'low'], '--from'],
+    [['frequency', 'ok.json', '--dt', '0.01'], '--dt'],
+    [['response', 'ok.json', '--points', '10'], '--points'],
+    [['check', 'ok.json', '--from', '1'], '--from'],
+  ])('frequency arguments: %j exits 2 naming %s', async (argv, field) => {
+    const m = memoryIo(files);
+    expect(await runCli(argv, m.io)).toBe(2);
+    expect(m.err()).toContain(field);
+  });
+
   it('check reports superposition, shift and the linear range, and explains a torque limit', async () => {
     const linear = memoryIo(files);
     expect(await runCli(['check', 'ok.json'], linear.io)).toBe(0);

@@ -1,8 +1,10 @@
+import { frequencyResponseOf } from '../../shared/frequency/frequency-response';
 import { parseScenarioText } from '../../shared/scenario/parse-scenario';
 import { describeFieldErrors, type FieldError } from '../../shared/validation/field-errors';
 import { twinScenarioErrors } from '../../shared/twin/twin-scenario-errors';
 import { DEFAULT_RESPONSE_DT, parseCliArguments, USAGE } from './cli-arguments';
 import { checkReport, EXIT_INVALID_INPUT, EXIT_OK, EXIT_TWIN_STOPPED } from './check-command';
+import { frequencyOutput, frequencySummary } from './frequency-command';
 import { checkGridSize, responseChunks } from './response-command';
 import { solveByMethod } from './response-sources';
 
@@ -45,6 +47,13 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     const report = checkReport(scenario.value, solved.value);
     await io.writeOut(`${JSON.stringify(report.document, null, 2)}\n`);
     return report.exitCode;
+  }
+  if (cmd.command === 'frequency') {
+    const response = frequencyResponseOf(scenario.value, { from: cmd.from, to: cmd.to, points: cmd.points });
+    if (!response.ok) return invalid(io, 'invalid arguments', response.errors.map((e) => ({ ...e, field: `--${e.field}` })), false);
+    await io.writeOut(frequencyOutput(response.value, cmd.format));
+    if (cmd.format === 'csv') io.writeErr(`kinetwin: ${frequencySummary(response.value)}\n`);
+    return EXIT_OK;
   }
   // Size the grid before solving: a twin run on a too-fine grid would cost minutes and memory.
   const grid = checkGridSize(cmd.dt, scenario.value.horizon);
