@@ -3,8 +3,8 @@
 #   scripts/local-postgres.sh start         install Debian's server if missing, init, start (idempotent)
 #   scripts/local-postgres.sh stop          stop the cluster if it runs
 #   scripts/local-postgres.sh running       exit 0 when the cluster is up (callers then leave it up)
-#   scripts/local-postgres.sh create-db DB  create DB if it does not exist
-#   scripts/local-postgres.sh recreate-db DB   drop and create DB (the test run's fresh database)
+#   scripts/local-postgres.sh create-db DB  create DB if it does not exist; (re)make its two roles
+#   scripts/local-postgres.sh recreate-db DB   drop and create DB with its roles (the test run's fresh database)
 #   scripts/local-postgres.sh url DB        print the app role's connection URL for DB (DATABASE_URL)
 #   scripts/local-postgres.sh owner-url DB  print the owner role's connection URL for DB (DATABASE_OWNER_URL)
 #   scripts/local-postgres.sh env DB        print both as `export` lines, for eval "$(… env DB)"
