@@ -41,13 +41,14 @@ export const scenarios = pgTable(
       .notNull()
       .references(() => users.id),
     name: text('name').notNull(),
-    /** The validated scenario document (shared/scenario/scenario-schema.ts). */
-    document: jsonb('document').notNull(),
     /** Set for the seeded demo scenarios, so the seed can update them in place. */
     demoKey: text('demo_key').unique(),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
     updatedAt: timestamp('updated_at', { withTimezone: true }).notNull().defaultNow(),
-    /** Number of the newest revision, whose document `document` mirrors; 0 before the first. */
+    /**
+     * Number of the newest revision, 0 before the first. The scenario's document is that
+     * revision's: the row keeps no copy, so what was signed off is the only version there is.
+     */
     headRevision: integer('head_revision').notNull().default(0),
     tags: text('tags').array().notNull().default(sql`'{}'::text[]`),
     /** Soft delete: set when archived, cleared when restored. */
@@ -56,7 +57,7 @@ export const scenarios = pgTable(
   (table) => [index('scenarios_team_idx').on(table.teamId)],
 );
 
-/** Every save of a scenario; append-only, and a signed-off row never changes again. */
+/** Every save of a scenario (the validated document of shared/scenario/scenario-schema.ts); append-only, and a signed-off row never changes again. */
 export const scenarioRevisions = pgTable(
   'scenario_revisions',
   {

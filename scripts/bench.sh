@@ -11,7 +11,9 @@ if [ -z "${DATABASE_URL:-}" ]; then
   scripts/local-postgres.sh running || own_cluster=1
   scripts/local-postgres.sh start
   scripts/local-postgres.sh recreate-db kinetwin_bench
-  DATABASE_URL=$(scripts/local-postgres.sh url kinetwin_bench)
-  export DATABASE_URL
+  # The owner (DATABASE_OWNER_URL) migrates and seeds; the server serves as the app role (DATABASE_URL).
+  # Assigned first so that set -e stops here if the script fails (eval of nothing would not).
+  db_env=$(scripts/local-postgres.sh env kinetwin_bench)
+  eval "$db_env"
 fi
 node --import tsx sim-server/bench/run-benchmarks.ts

@@ -3,16 +3,22 @@
 #   scripts/local-postgres.sh start         install Debian's server if missing, init, start (idempotent)
 #   scripts/local-postgres.sh stop          stop the cluster if it runs
 #   scripts/local-postgres.sh running       exit 0 when the cluster is up (callers then leave it up)
-#   scripts/local-postgres.sh create-db DB  create DB if it does not exist
-#   scripts/local-postgres.sh recreate-db DB   drop and create DB (the test run's fresh database)
-#   scripts/local-postgres.sh url DB        print the connection URL for DB
+#   scripts/local-postgres.sh create-db DB  create DB if it does not exist; (re)make its two roles
+#   scripts/local-postgres.sh recreate-db DB   drop and create DB with its roles (the test run's fresh database)
+#   scripts/local-postgres.sh url DB        print the app role's connection URL for DB (DATABASE_URL)
+#   scripts/local-postgres.sh owner-url DB  print the owner role's connection URL for DB (DATABASE_OWNER_URL)
+#   scripts/local-postgres.sh env DB        print both as `export` lines, for eval "$(… env DB)"
 # It listens on 127.0.0.1 only, on KINETWIN_PG_PORT (default 54329), with its data in .data/pg.
+# Every database it creates gets the roles of scripts/sql/local-roles.sql: kinetwin_owner owns it
+# and migrates, kinetwin_app serves; the superuser kinetwin is kept for this script alone.
 set -euo pipefail
 
 root=$(cd "$(dirname "$0")/.." && pwd)
 data_dir="$root/.data/pg"
 port="${KINETWIN_PG_PORT:-54329}"
 db_user=kinetwin
+owner_role=kinetwin_owner
+app_role=kinetwin_app
 
 say() { printf '[postgres] %s\n' "$*" >&2; }
 die() { printf '[postgres] error: %s\n' "$*" >&2; exit 1; }
@@ -90,18 +96,27 @@ stop() {
 
 valid_db_name() { [[ "$1" =~ ^[a-z_][a-z0-9_]{0,62}$ ]] || die "bad database name: $1"; }
 
+# Creates or updates both roles and hands DB to the owner (idempotent; see the SQL file).
+prepare_roles() {
+  psql_admin -d "$1" -f - < "$root/scripts/sql/local-roles.sql"
+}
+
 create_db() {
   valid_db_name "$1"
   if [ "$(psql_admin -c "SELECT 1 FROM pg_database WHERE datname = '$1'")" != "1" ]; then
     psql_admin -c "CREATE DATABASE $1" && say "created database $1"
   fi
+  prepare_roles "$1"
 }
 
 recreate_db() {
   valid_db_name "$1"
   psql_admin -c "DROP DATABASE IF EXISTS $1 WITH (FORCE)"
   psql_admin -c "CREATE DATABASE $1" && say "created fresh database $1"
+  prepare_roles "$1"
 }
+
+role_url() { printf 'postgres://%s@127.0.0.1:%s/%s' "$1" "$port" "$2"; }
 
 case "${1:-}" in
   start) start ;;
@@ -109,6 +124,10 @@ case "${1:-}" in
   running) [ -n "$(bin_dir)" ] && pg_running ;;
   create-db) create_db "${2:?database name}" ;;
   recreate-db) recreate_db "${2:?database name}" ;;
-  url) valid_db_name "${2:?database name}"; printf 'postgres://%s@127.0.0.1:%s/%s\n' "$db_user" "$port" "$2" ;;
-  *) die "usage: $0 start|stop|create-db DB|recreate-db DB|url DB" ;;
+  url) valid_db_name "${2:?database name}"; printf '%s\n' "$(role_url "$app_role" "$2")" ;;
+  owner-url) valid_db_name "${2:?database name}"; printf '%s\n' "$(role_url "$owner_role" "$2")" ;;
+  env)
+    valid_db_name "${2:?database name}"
+    printf 'export DATABASE_URL=%s\nexport DATABASE_OWNER_URL=%s\n' "$(role_url "$app_role" "$2")" "$(role_url "$owner_role" "$2")" ;;
+  *) die "usage: $0 start|stop|running|create-db DB|recreate-db DB|url DB|owner-url DB|env DB" ;;
 esac

@@ -1,5 +1,6 @@
 #!/usr/bin/env bash
 # `npm start`: local PostgreSQL (unless DATABASE_URL is set), build the app, migrate, seed, serve.
+# With DATABASE_URL set, set DATABASE_OWNER_URL too (or migrate separately: npm run db:migrate).
 # Ctrl-C stops the server and then the cluster this script started.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -19,8 +20,10 @@ if [ -z "${DATABASE_URL:-}" ]; then
   scripts/local-postgres.sh running || own_cluster=1
   scripts/local-postgres.sh start
   scripts/local-postgres.sh create-db kinetwin
-  DATABASE_URL=$(scripts/local-postgres.sh url kinetwin)
-  export DATABASE_URL
+  # The owner (DATABASE_OWNER_URL) migrates and seeds; the server serves as the app role (DATABASE_URL).
+  # Assigned first so that set -e stops here if the script fails (eval of nothing would not).
+  db_env=$(scripts/local-postgres.sh env kinetwin)
+  eval "$db_env"
 fi
 
 # Sessions outlive a restart only with a stable secret; keep one beside the local data.

@@ -80,10 +80,10 @@ if [ -z "${DATABASE_URL:-}" ]; then
   scripts/local-postgres.sh running || own_cluster=1
   scripts/local-postgres.sh start
   scripts/local-postgres.sh recreate-db kinetwin_test
-  DATABASE_URL=$(scripts/local-postgres.sh url kinetwin_test)
-  export DATABASE_URL
+  # Both roles: the owner migrates and writes fixtures, the server serves as the app role.
+  eval "$(scripts/local-postgres.sh env kinetwin_test)"
 else
-  echo "[test] using DATABASE_URL from the environment; its tables are migrated and seeded"
+  echo "[test] using DATABASE_URL and DATABASE_OWNER_URL from the environment; its tables are migrated and seeded"
 fi
 run integration npx vitest run --config vitest.integration.config.ts
 run browser browser_tests

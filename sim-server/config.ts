@@ -8,7 +8,21 @@ import { CHECK_QUEUE_SIZE, CHECK_TIME_LIMIT_MS } from './checks/check-limits';
 export interface ServerConfig {
   host: string;
   port: number;
+  /** The role the server serves with: least privilege (sim-server/db/app-grants.ts). */
   databaseUrl: string;
+  /**
+   * The role that owns the schema: migrations, the demo seed and the app role's grants run with
+   * it. Null when DATABASE_OWNER_URL is unset: then DATABASE_URL migrates too (a hosted setup
+   * whose migrations run separately, e.g. `npm run db:migrate` in its release step, leaves the
+   * server nothing to migrate and no grants to apply).
+   */
+  databaseOwnerUrl: string | null;
+  /**
+   * Serve even when the DATABASE_URL role is a superuser, may create roles or databases, or owns
+   * part of the schema. Off by default: the start-up check (sim-server/db/app-role-check.ts)
+   * refuses such a role, since with it no grant and no trigger protects the data.
+   */
+  allowPrivilegedDatabaseRole: boolean;
   /** demo: seeds demo users and scenarios and shows their sign-ins; production: neither. */
   mode: 'demo' | 'production';
   sessionSecret: string;
@@ -82,6 +96,11 @@ const envSchema = z.object({
   DATABASE_URL: z.string({ error: 'DATABASE_URL is required (npm start sets it for the local cluster)' }).regex(/^postgres(ql)?:\/\//, {
     error: 'DATABASE_URL must start with postgres:// or postgresql://',
   }),
+  DATABASE_OWNER_URL: z
+    .string()
+    .regex(/^postgres(ql)?:\/\//, { error: 'DATABASE_OWNER_URL must start with postgres:// or postgresql://' })
+    .optional(),
+  ALLOW_PRIVILEGED_DATABASE_ROLE: z.enum(['true', 'false'], { error: 'ALLOW_PRIVILEGED_DATABASE_ROLE must be true or false' }).default('false'),
   KINETWIN_MODE: z.enum(['demo', 'production']).default('demo'),
   SESSION_SECRET: z.string().min(16, { error: 'SESSION_SECRET must be at least 16 characters' }).optional(),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
@@ -128,6 +147,8 @@ export function readConfig(env: Record<string, string | undefined>): { ok: true;
       host: e.HOST,
       port: e.PORT,
       databaseUrl: e.DATABASE_URL,
+      databaseOwnerUrl: e.DATABASE_OWNER_URL ?? null,
+      allowPrivilegedDatabaseRole: e.ALLOW_PRIVILEGED_DATABASE_ROLE === 'true',
       mode: e.KINETWIN_MODE,
       // Demo mode without a secret still signs cookies; they just do not outlive a restart.
       sessionSecret: e.SESSION_SECRET ?? crypto.randomUUID() + crypto.randomUUID(),

@@ -1,9 +1,8 @@
 import { readFileSync } from 'node:fs';
 import { readConfig } from './config';
 import { createKinetwinServer } from './create-app';
-import { openDatabase, pingDatabase } from './db/database';
-import { runMigrations } from './db/migrate';
-import { DEMO_ACCOUNTS, seedDemo } from './db/seed-demo';
+import { prepareDatabase } from './db/prepare-database';
+import { DEMO_ACCOUNTS } from './db/seed-demo';
 import { createLogger } from './logging/logger';
 
 const version = (JSON.parse(readFileSync(new URL('../package.json', import.meta.url), 'utf8')) as { version: string }).version;
@@ -19,26 +18,11 @@ async function main() {
   if (!read.ok) fail(`${read.message}`);
   const config = read.config;
   const logger = createLogger(config.logLevel);
-  const database = openDatabase(config.databaseUrl);
-
-  try {
-    await pingDatabase(database.pool);
-  } catch (err) {
-    fail(`database unreachable at ${redact(config.databaseUrl)}: ${(err as Error).message}. Start PostgreSQL (npm start does) or fix DATABASE_URL.`);
-  }
-  try {
-    await runMigrations(database.db);
-  } catch (err) {
-    fail(`migrations failed: ${(err as Error).message}. Check that the database user may create tables, then start again.`);
-  }
-  if (config.mode === 'demo') {
-    try {
-      const seeded = await seedDemo(database.db);
-      logger.info(seeded, 'demo data seeded');
-    } catch (err) {
-      fail(`demo seed failed: ${(err as Error).message}`);
-    }
-  }
+  const prepared = await prepareDatabase(config, logger);
+  if (!prepared.ok) fail(prepared.message);
+  // The owner's pool was for migrations, the seed and the grants only: the server never uses it.
+  await prepared.database.owner?.close();
+  const database = prepared.database.app;
 
   const server = createKinetwinServer(config, database, logger, version);
   server.http.on('error', (err: NodeJS.ErrnoException) => {
@@ -71,10 +55,6 @@ async function main() {
   };
   process.on('SIGINT', () => shutdown('SIGINT'));
   process.on('SIGTERM', () => shutdown('SIGTERM'));
-}
-
-function redact(url: string): string {
-  return url.replace(/\/\/([^:@/]+):[^@/]*@/, '//$1:***@');
 }
 
 void main();

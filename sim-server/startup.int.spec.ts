@@ -1,25 +1,7 @@
-import { spawn } from 'node:child_process';
 import { createServer } from 'node:net';
 import type { AddressInfo } from 'node:net';
 import { describe, expect, it } from 'vitest';
-
-/** Runs the real server entry point and collects what it says until it exits or is up. */
-function runMain(env: Record<string, string | undefined>): Promise<{ code: number | null; stderr: string; stdout: string }> {
-  return new Promise((resolve) => {
-    const child = spawn(process.execPath, ['--import', 'tsx', 'sim-server/main.ts'], {
-      env: { ...process.env, LOG_LEVEL: 'silent', ...env } as NodeJS.ProcessEnv,
-      stdio: ['ignore', 'pipe', 'pipe'],
-    });
-    let stdout = '';
-    let stderr = '';
-    child.stdout.on('data', (d: Buffer) => {
-      stdout += d.toString();
-      if (stdout.includes('is up:')) child.kill('SIGTERM');
-    });
-    child.stderr.on('data', (d: Buffer) => (stderr += d.toString()));
-    child.on('exit', (code) => resolve({ code, stderr, stdout }));
-  });
-}
+import { runMain } from './testing/run-main';
 
 describe('server start-up errors', () => {
   it('says in one line that the port is taken and exits non-zero', async () => {

@@ -69,8 +69,7 @@ export async function seedDemo(db: Database): Promise<{ users: number; scenarios
     for (const { key, scenario } of documents) {
       const [existing] = await tx.select({ id: scenarios.id }).from(scenarios).where(eq(scenarios.demoKey, key));
       if (!existing) {
-        const id = await insertScenario(tx, team.id, ownerId, scenario, DEMO_SEED_NOTE, ['demo']);
-        await tx.update(scenarios).set({ demoKey: key }).where(eq(scenarios.id, id));
+        await insertScenario(tx, team.id, ownerId, scenario, DEMO_SEED_NOTE, ['demo'], key);
         continue;
       }
       const locked = await lockScenario(tx, team.id, existing.id);
@@ -85,9 +84,9 @@ export async function seedDemo(db: Database): Promise<{ users: number; scenarios
       const [headSame] = last
         ? [last]
         : await tx
-            .select({ same: sql<boolean>`${scenarios.document} = ${JSON.stringify(scenario)}::jsonb` })
-            .from(scenarios)
-            .where(eq(scenarios.id, existing.id));
+            .select({ same: sql<boolean>`${scenarioRevisions.document} = ${JSON.stringify(scenario)}::jsonb` })
+            .from(scenarioRevisions)
+            .where(and(eq(scenarioRevisions.scenarioId, existing.id), eq(scenarioRevisions.number, locked.headRevision)));
       if (!headSame?.same) await appendRevision(tx, existing.id, locked.headRevision, scenario, DEMO_SEED_NOTE, ownerId);
     }
     return { users: ids.length, scenarios: documents.length };

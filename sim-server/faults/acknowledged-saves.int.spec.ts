@@ -31,7 +31,8 @@ describe('a save answered 2xx survives SIGKILL of the server', () => {
   beforeAll(async () => {
     const read = readConfig(process.env);
     if (!read.ok) throw new Error(read.message);
-    database = openDatabase(read.config.databaseUrl);
+    // The owner's handle: the fixtures below are written straight to the tables.
+    database = openDatabase(read.config.databaseOwnerUrl ?? read.config.databaseUrl);
     await runMigrations(database.db);
     // A team of its own, so the library tests of other files see none of these scenarios.
     const [team] = await database.db.insert(teams).values({ name: 'Durability lab' }).returning({ id: teams.id });

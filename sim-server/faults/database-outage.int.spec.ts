@@ -28,7 +28,7 @@ describe('PostgreSQL stopped under a running server', () => {
   beforeAll(async () => {
     cluster = await createThrowawayCluster();
     // A fixed secret so the session cookie stays valid across the outage (demo mode would pick one per start).
-    server = await startServerProcess({ DATABASE_URL: cluster.url, SESSION_SECRET: 'database-outage-test-secret' });
+    server = await startServerProcess({ DATABASE_URL: cluster.url, DATABASE_OWNER_URL: cluster.ownerUrl, SESSION_SECRET: 'database-outage-test-secret' });
     // The demo engineer owns the demo scenarios, so may save them.
     const owner = DEMO_ACCOUNTS[0]!;
     const session = await signInSession(server.baseUrl, owner.email, owner.password);

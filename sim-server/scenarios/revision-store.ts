@@ -82,22 +82,23 @@ export async function lockScenario(tx: Transaction, teamId: number, id: number) 
 }
 
 /**
- * Appends the next revision of a locked scenario and makes it the newest: the scenario row
- * mirrors its document and name. Earlier revisions (signed off or not) are never touched.
+ * Appends the next revision of a locked scenario and makes it the head: the scenario row takes
+ * its number and name (its document is read from the revision). Earlier revisions (signed off
+ * or not) are never touched.
  */
 export async function appendRevision(tx: Transaction, scenarioId: number, headRevision: number, document: Scenario, note: string, authorId: number): Promise<number> {
   const number = headRevision + 1;
   await tx.insert(scenarioRevisions).values({ scenarioId, number, document, note, authorId });
   await tx
     .update(scenarios)
-    .set({ document, name: document.name, headRevision: number, updatedAt: sql`now()` })
+    .set({ name: document.name, headRevision: number, updatedAt: sql`now()` })
     .where(eq(scenarios.id, scenarioId));
   return number;
 }
 
-/** Creates a scenario with its first revision. */
-export async function insertScenario(tx: Transaction, teamId: number, ownerId: number, document: Scenario, note: string, tags: string[]): Promise<number> {
-  const [row] = await tx.insert(scenarios).values({ teamId, ownerId, name: document.name, document, tags, headRevision: 1 }).returning({ id: scenarios.id });
+/** Creates a scenario with its first revision (a demo key for the seed's own scenarios). */
+export async function insertScenario(tx: Transaction, teamId: number, ownerId: number, document: Scenario, note: string, tags: string[], demoKey: string | null = null): Promise<number> {
+  const [row] = await tx.insert(scenarios).values({ teamId, ownerId, name: document.name, tags, headRevision: 1, demoKey }).returning({ id: scenarios.id });
   await tx.insert(scenarioRevisions).values({ scenarioId: row!.id, number: 1, document, note, authorId: ownerId });
   return row!.id;
 }

@@ -50,7 +50,7 @@ export async function listLibrary(db: Database, teamId: number, query: ParsedLib
   const conditions: SQL[] = [eq(scenarios.teamId, teamId)];
   if (query.q) {
     const pattern = containing(query.q);
-    conditions.push(or(ilike(scenarios.name, pattern), ilike(sql`${scenarios.document}->>'notes'`, pattern))!);
+    conditions.push(or(ilike(scenarios.name, pattern), ilike(sql`${head.document}->>'notes'`, pattern))!);
   }
   if (query.tag) conditions.push(sql`${query.tag} = ANY(${scenarios.tags})`);
   if (query.owner) conditions.push(eq(scenarios.ownerId, query.owner));
@@ -86,7 +86,11 @@ export async function listLibrary(db: Database, teamId: number, query: ParsedLib
   return { items: rows.map(toItem), page: query.page, pageSize: query.pageSize, total: total?.n ?? 0 };
 }
 
-/** A scenario's library row with its newest document and sign-off, or null outside the team. */
+/**
+ * A scenario's library row with its head revision's document and sign-off, or null outside the
+ * team. The document is read from the revision itself, the one record a sign-off covers: the
+ * scenario row keeps no copy that could say something else.
+ */
 export interface StoredScenario extends LibraryItem {
   teamId: number;
   archivedAt: Date | null;
@@ -100,7 +104,7 @@ export async function loadScenario(db: Database, teamId: number, id: number): Pr
       ...itemColumns,
       teamId: scenarios.teamId,
       archivedAt: scenarios.archivedAt,
-      document: scenarios.document,
+      document: head.document,
       signedOffAt: head.signedOffAt,
       signOffNote: head.signOffNote,
       signerId: signer.id,

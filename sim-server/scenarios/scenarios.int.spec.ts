@@ -1,7 +1,7 @@
 import { readdirSync } from 'node:fs';
 import { eq } from 'drizzle-orm';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { scenarios, teams, users } from '../../drizzle/schema';
+import { scenarioRevisions, scenarios, teams, users } from '../../drizzle/schema';
 import { DEMO_ACCOUNTS, seedDemo } from '../db/seed-demo';
 import { runMigrations } from '../db/migrate';
 import { readJson, signIn, startTestServer, type TestServer } from '../testing/test-server';
@@ -23,10 +23,8 @@ describe('scenario library against the real database', () => {
       .insert(users)
       .values({ teamId: team!.id, email: `other-${Date.now()}@example.test`, displayName: 'Other owner', passwordHash: 'x' })
       .returning();
-    const [row] = await db
-      .insert(scenarios)
-      .values({ teamId: team!.id, ownerId: owner!.id, name: 'Other lab secret axis', document: { kind: 'kinetwin/scenario' } })
-      .returning();
+    const [row] = await db.insert(scenarios).values({ teamId: team!.id, ownerId: owner!.id, name: 'Other lab secret axis', headRevision: 1 }).returning();
+    await db.insert(scenarioRevisions).values({ scenarioId: row!.id, number: 1, document: { kind: 'kinetwin/scenario' }, authorId: owner!.id });
     foreignScenarioId = row!.id;
   });
   afterAll(() => t.close());

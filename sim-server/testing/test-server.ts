@@ -5,16 +5,21 @@ import { roles, type Role } from '../../shared/protocol/api-types';
 import { hashPassword } from '../auth/passwords';
 import { readConfig, type ServerConfig } from '../config';
 import { createKinetwinServer, type KinetwinServer } from '../create-app';
-import { openDatabase, type DatabaseHandle } from '../db/database';
-import { runMigrations } from '../db/migrate';
-import { seedDemo } from '../db/seed-demo';
+import type { DatabaseHandle } from '../db/database';
+import { prepareDatabase } from '../db/prepare-database';
 import { createLogger } from '../logging/logger';
 
-/** A real server on a free loopback port against the test database (DATABASE_URL), migrated and seeded. */
+/**
+ * A real server on a free loopback port against the test database, migrated and seeded by the
+ * owner (DATABASE_OWNER_URL) and serving as the app role (DATABASE_URL), as in production.
+ */
 export interface TestServer {
   baseUrl: string;
   server: KinetwinServer;
+  /** The owner's handle: for fixtures written straight to the tables and for snapshots. */
   database: DatabaseHandle;
+  /** The app role's handle, the one the server itself uses. */
+  appDatabase: DatabaseHandle;
   config: ServerConfig;
   close(): Promise<void>;
 }
@@ -23,20 +28,23 @@ export async function startTestServer(overrides: Record<string, string> = {}): P
   const read = readConfig({ ...process.env, PORT: '0', LOG_LEVEL: 'silent', KINETWIN_MODE: 'demo', ...overrides });
   if (!read.ok) throw new Error(read.message);
   const config = read.config;
-  const database = openDatabase(config.databaseUrl);
-  await runMigrations(database.db);
-  await seedDemo(database.db);
-  const server = createKinetwinServer(config, database, createLogger('silent'), 'test');
+  if (config.databaseOwnerUrl === null) throw new Error('integration tests need DATABASE_OWNER_URL too: eval "$(scripts/local-postgres.sh env kinetwin_test)"');
+  const prepared = await prepareDatabase(config, createLogger('silent'), { seed: true });
+  if (!prepared.ok) throw new Error(prepared.message);
+  const appDatabase = prepared.database.app;
+  const database = prepared.database.owner!;
+  const server = createKinetwinServer(config, appDatabase, createLogger('silent'), 'test');
   await new Promise<void>((resolve) => server.http.listen(0, '127.0.0.1', resolve));
   const { port } = server.http.address() as AddressInfo;
   return {
     baseUrl: `http://127.0.0.1:${port}`,
     server,
     database,
+    appDatabase,
     config,
     close: async () => {
       await server.close();
-      await database.close();
+      await Promise.all([appDatabase.close(), database.close()]);
     },
   };
 }

@@ -1,5 +1,5 @@
 import { execFile } from 'node:child_process';
-import { chmodSync, chownSync, mkdirSync, mkdtempSync, readdirSync, rmSync } from 'node:fs';
+import { chmodSync, chownSync, mkdirSync, mkdtempSync, readdirSync, readFileSync, rmSync } from 'node:fs';
 import { createServer } from 'node:net';
 import { tmpdir, userInfo } from 'node:os';
 import path from 'node:path';
@@ -8,9 +8,11 @@ import pg from 'pg';
 
 const run = promisify(execFile);
 
-/** The database every throwaway cluster holds, owned by its superuser. */
+/** The database every throwaway cluster holds, with the roles of scripts/sql/local-roles.sql. */
 export const THROWAWAY_DATABASE = 'kinetwin_faults';
 const SUPERUSER = 'kinetwin';
+/** The same roles scripts/local-postgres.sh makes, from the same file. */
+const ROLES_SQL = readFileSync(new URL('../../scripts/sql/local-roles.sql', import.meta.url), 'utf8');
 
 /**
  * A PostgreSQL cluster of a test's own, in a temp folder on a free loopback port, so the test can
@@ -18,8 +20,12 @@ const SUPERUSER = 'kinetwin';
  */
 export interface ThrowawayCluster {
   port: number;
-  /** Connection URL of THROWAWAY_DATABASE. */
+  /** Connection URL of THROWAWAY_DATABASE as the app role (DATABASE_URL). */
   url: string;
+  /** The same as the owner role (DATABASE_OWNER_URL). */
+  ownerUrl: string;
+  /** The same as the cluster's superuser. */
+  superuserUrl: string;
   /** pg_ctl start, waiting until it accepts connections. */
   start(): Promise<void>;
   /** pg_ctl stop; 'immediate' ends every backend at once with no checkpoint, as a crash would. */
@@ -71,7 +77,9 @@ export async function createThrowawayCluster(): Promise<ThrowawayCluster> {
   let running = false;
   const cluster: ThrowawayCluster = {
     port,
-    url: `postgres://${SUPERUSER}@127.0.0.1:${port}/${THROWAWAY_DATABASE}`,
+    url: `postgres://kinetwin_app@127.0.0.1:${port}/${THROWAWAY_DATABASE}`,
+    ownerUrl: `postgres://kinetwin_owner@127.0.0.1:${port}/${THROWAWAY_DATABASE}`,
+    superuserUrl: `postgres://${SUPERUSER}@127.0.0.1:${port}/${THROWAWAY_DATABASE}`,
     start: async () => {
       await pgCtl('-l', path.join(dataDir, 'server.log'), '-w', '-t', '60', '-o', `-c listen_addresses=127.0.0.1 -p ${port} -k ${dataDir}`, 'start');
       running = true;
@@ -91,6 +99,10 @@ export async function createThrowawayCluster(): Promise<ThrowawayCluster> {
     await admin.connect();
     await admin.query(`CREATE DATABASE ${THROWAWAY_DATABASE}`);
     await admin.end();
+    const inDatabase = new pg.Client({ connectionString: cluster.superuserUrl });
+    await inDatabase.connect();
+    await inDatabase.query(ROLES_SQL);
+    await inDatabase.end();
   } catch (err) {
     await cluster.destroy();
     throw err;
