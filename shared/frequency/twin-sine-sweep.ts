@@ -56,11 +56,26 @@ export interface SineSweepResult {
   points: MeasuredPoint[];
 }
 
+/** The path a sweep measures unless told: the reference in closed loop, the torque in open loop. */
+export function defaultSweepChannel(scenario: Scenario): InputChannel {
+  return scenario.controller.mode === 'pid' ? 'reference' : 'torque';
+}
+
+/**
+ * The injected amplitude unless told: the largest amplitude among the scenario's own terms on
+ * that channel (so the sweep moves the joint as its scenario does, limits and all), else 1.
+ */
+export function defaultSweepAmplitude(scenario: Scenario, channel: InputChannel): number {
+  const own = scenario.inputs.filter((t) => t.channel === channel && t.shape !== 'impulse' && t.shape !== 'ramp').map((t) => Math.abs(t.amplitude));
+  const largest = Math.max(0, ...own);
+  return largest > 0 ? largest : 1;
+}
+
 /**
  * The slowest decay rate of the linear loop's transient, 1/s, and how many poles sit at the
  * origin; or why no steady sinusoid exists (a pole in the right half-plane or on the axis).
  */
-function transientOf(scenario: Scenario): { ok: true; rate: number } | { ok: false; reason: string } {
+function transientOf(scenario: Scenario): { ok: true; rate: number; drifts: boolean } | { ok: false; reason: string } {
   const roots = polynomialRoots(loopChannelsOf(scenario).characteristic);
   if (!roots.ok) return { ok: false, reason: `the loop's poles could not be found: ${roots.reason}` };
   let rate = Infinity;
@@ -77,36 +92,44 @@ function transientOf(scenario: Scenario): { ok: true; rate: number } | { ok: fal
   }
   // Up to two poles at the origin leave an offset and a constant drift, which the fit removes.
   if (origin > 2) return { ok: false, reason: 'more than two poles at the origin: the response drifts faster than the fit can remove' };
-  return { ok: true, rate };
+  return { ok: true, rate, drifts: origin > 0 };
 }
 
-/** Least squares of y ≈ c0 + c1·t + a·sin ωt + b·cos ωt (mathjs lusolve on the normal equations). */
-function fitFundamental(t: Float64Array, y: Float64Array, w: number): { a: number; b: number; residualRms: number } {
+/**
+ * Least squares of y ≈ c0 + a·sin ωt + b·cos ωt (+ c1·t when the joint drifts), by mathjs lusolve
+ * on the normal equations. Without the drift term, whole periods sampled evenly make the fit the
+ * discrete Fourier coefficient of the fundamental, blind to every harmonic a limit adds; the
+ * drift term is not orthogonal to the harmonics, so it is used only where a pole at the origin
+ * needs it.
+ */
+function fitFundamental(t: Float64Array, y: Float64Array, w: number, drifts: boolean): { a: number; b: number; residualRms: number } {
   const n = t.length;
   const t0 = t[0]!;
   const span = t[n - 1]! - t0 || 1;
-  const basis = (i: number): [number, number, number, number] => {
+  // The trend on a unit interval keeps the normal equations well conditioned.
+  const basis = (i: number): number[] => {
     const tt = t[i]!;
-    // The trend on a unit interval keeps the normal equations well conditioned.
-    return [1, (tt - t0) / span, Math.sin(w * tt), Math.cos(w * tt)];
+    return drifts ? [Math.sin(w * tt), Math.cos(w * tt), 1, (tt - t0) / span] : [Math.sin(w * tt), Math.cos(w * tt), 1];
   };
-  const A = [0, 1, 2, 3].map(() => [0, 0, 0, 0]);
-  const rhs = [0, 0, 0, 0];
+  const m = drifts ? 4 : 3;
+  const A = Array.from({ length: m }, () => new Array<number>(m).fill(0));
+  const rhs = new Array<number>(m).fill(0);
   for (let i = 0; i < n; i++) {
     const f = basis(i);
-    for (let r = 0; r < 4; r++) {
+    for (let r = 0; r < m; r++) {
       rhs[r]! += f[r]! * y[i]!;
-      for (let c = 0; c < 4; c++) A[r]![c]! += f[r]! * f[c]!;
+      for (let c = 0; c < m; c++) A[r]![c]! += f[r]! * f[c]!;
     }
   }
   const c = (lusolve(A, rhs) as number[][]).map((row) => row[0]!);
   let sum = 0;
   for (let i = 0; i < n; i++) {
     const f = basis(i);
-    const e = y[i]! - (c[0]! * f[0] + c[1]! * f[1] + c[2]! * f[2] + c[3]! * f[3]);
+    let e = y[i]!;
+    for (let r = 0; r < m; r++) e -= c[r]! * f[r]!;
     sum += e * e;
   }
-  return { a: c[2]!, b: c[3]!, residualRms: Math.sqrt(sum / n) };
+  return { a: c[0]!, b: c[1]!, residualRms: Math.sqrt(sum / n) };
 }
 
 const DEG = 180 / Math.PI;
@@ -137,7 +160,7 @@ export function sineSweepOfTwin(scenario: Scenario, request: SineSweepRequest): 
   // The closed form's phase at each frequency picks the branch of the measured phase.
   const reference = branchReference(scenario, channel, frequencies);
 
-  const points = frequencies.map((w, i) => measureOne(scenario, channel, amplitude, w, transient.rate, reference[i]!));
+  const points = frequencies.map((w, i) => measureOne(scenario, channel, amplitude, w, transient, reference[i]!));
   return { ok: true, value: { channel, amplitude, points } };
 }
 
@@ -151,7 +174,7 @@ function branchReference(scenario: Scenario, channel: InputChannel, frequencies:
   });
 }
 
-function measureOne(scenario: Scenario, channel: InputChannel, amplitude: number, w: number, rate: number, branch: number): MeasuredPoint {
+function measureOne(scenario: Scenario, channel: InputChannel, amplitude: number, w: number, { rate, drifts }: { rate: number; drifts: boolean }, branch: number): MeasuredPoint {
   const d = SINE_SWEEP_DEFAULTS;
   const period = (2 * Math.PI) / w;
   const settle = Math.max(d.minSettlePeriods * period, Number.isFinite(rate) ? Math.log(1 / d.transientFraction) / rate : 0);
@@ -183,7 +206,7 @@ function measureOne(scenario: Scenario, channel: InputChannel, amplitude: number
   }
   if (run.stop) return unmeasured(w, `the twin stopped: ${run.stop.message}`);
   if (index < start + n) return unmeasured(w, 'the twin run ended before the measured periods');
-  const fit = fitFundamental(t, y, w);
+  const fit = fitFundamental(t, y, w, drifts);
   const fundamental = Math.hypot(fit.a, fit.b);
   if (!(fundamental > 0) || !Number.isFinite(fundamental)) return unmeasured(w, 'the angle does not move at this frequency');
   const phase = Math.atan2(fit.b, fit.a) * DEG;

@@ -1,5 +1,6 @@
-import { DEFAULT_FREQUENCY_GRID } from '../../shared/frequency/frequency-grid';
+import { DEFAULT_FREQUENCY_GRID, logFrequencies } from '../../shared/frequency/frequency-grid';
 import { frequencyResponseOf } from '../../shared/frequency/frequency-response';
+import { sineSweepOfTwin } from '../../shared/frequency/twin-sine-sweep';
 import { parseScenario } from '../../shared/scenario/parse-scenario';
 import { type BenchResult } from './bench-result';
 import { median, timeRuns } from './bench-timing';
@@ -35,5 +36,29 @@ export async function benchFrequency(): Promise<BenchResult[]> {
     if (!Number.isFinite(sink)) throw new Error('frequency bench produced a non-finite margin');
     results.push({ name: `frequency response: ${DEFAULT_FREQUENCY_GRID.points} points with margins, ${label}`, median: median(times), unit: 'ms', runs: TIMED_RUNS, goal: '< 2 ms' });
   }
+  results.push(benchSineSweep());
   return results;
+}
+
+const SWEEP_RUNS = 5;
+
+/**
+ * The twin's measured response: 20 log-spaced frequencies from 1 to 1000 rad/s on the
+ * reference path of the continuous bench joint, each a twin run past the transient plus four
+ * measured periods, in one thread (the sweep's runs are independent; on a worker pool of two
+ * threads it would take about half).
+ */
+function benchSineSweep(): BenchResult {
+  const parsed = parseScenario(BENCH_SCENARIO);
+  const grid = logFrequencies({ from: 1, to: 1000, points: 20 });
+  if (!parsed.ok || !grid.ok) throw new Error('sweep bench inputs are invalid');
+  const times = timeRuns(
+    () => {
+      const r = sineSweepOfTwin(parsed.value, { frequencies: grid.value, channel: 'reference', amplitude: 0.1 });
+      if (!r.ok || r.value.points.some((p) => p.reason !== null)) throw new Error('sweep bench: a frequency was not measured');
+    },
+    1,
+    SWEEP_RUNS,
+  );
+  return { name: 'twin sine sweep: 20 frequencies 1–1000 rad/s, one thread', median: median(times), unit: 'ms', runs: SWEEP_RUNS, goal: '< 2 s on both cores' };
 }

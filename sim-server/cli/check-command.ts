@@ -15,7 +15,7 @@ export const SAFETY_NOTICE =
 export const EXIT_OK = 0;
 export const EXIT_LIMITS_NOT_MET = 1;
 export const EXIT_INVALID_INPUT = 2;
-/** The twin stopped at a bound before the horizon: the samples up to there are printed, the rest are missing. */
+/** The twin stopped at a bound before the horizon (the samples up to there are printed), or a measured frequency has no figure. */
 export const EXIT_TWIN_STOPPED = 3;
 
 /**

@@ -9,16 +9,30 @@ export type ResponseFormat = (typeof RESPONSE_FORMATS)[number];
 /** Where the numbers come from: the closed form, the simulated twin, or both side by side. */
 export const RESPONSE_METHODS = ['closed-form', 'sim', 'both'] as const;
 export type ResponseMethod = (typeof RESPONSE_METHODS)[number];
+/** The closed form's frequency response, or that and the twin's measured by injected sines. */
+export const FREQUENCY_METHODS = ['closed-form', 'sim'] as const;
+export type FrequencyMethod = (typeof FREQUENCY_METHODS)[number];
 
 export type CliCommand =
   | { command: 'response'; file: string; dt: number; format: ResponseFormat; method: ResponseMethod }
   | { command: 'check'; file: string; method: ResponseMethod }
-  | { command: 'frequency'; file: string; from: number; to: number; points: number; format: ResponseFormat }
+  | {
+      command: 'frequency';
+      file: string;
+      from: number;
+      to: number;
+      points: number;
+      format: ResponseFormat;
+      method: FrequencyMethod;
+      /** sim only: the path measured and the injected sine's amplitude (null: from the scenario). */
+      channel: 'reference' | 'torque' | null;
+      amplitude: number | null;
+    }
   | { command: 'help' };
 
 const COMMANDS = ['response', 'check', 'frequency'] as const;
 /** Options that belong to one command only; the others refuse them by name. */
-const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points'] } as const;
+const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'] } as const;
 
 export const USAGE = `usage:
   kinetwin response FILE [--dt 0.001] [--format csv|json] [--method closed-form|sim|both]
@@ -28,9 +42,11 @@ export const USAGE = `usage:
       poles, theorem verdicts, step metrics, superposition and shift checks and the linear range
       as JSON; exit 1 when the scenario's limits are not met
   kinetwin frequency FILE [--from 0.1] [--to 1000] [--points 200] [--format csv|json]
+                 [--method closed-form|sim] [--channel reference|torque] [--amplitude A]
       magnitude (dB) and phase (degrees) of the loop, reference-to-angle and torque-to-angle on
-      log-spaced rad/s, with gain and phase margins, crossovers, bandwidth and the verdicts
-exit codes: 0 ok, 1 limits not met (check), 2 invalid input, 3 the twin stopped at a bound (rows up to there printed)`;
+      log-spaced rad/s, with gain and phase margins, crossovers, bandwidth and the verdicts;
+      --method sim adds the twin's response measured by injected sines of amplitude A
+exit codes: 0 ok, 1 limits not met (check), 2 invalid input, 3 the twin stopped early (what it has is printed)`;
 
 /**
  * Parses the kinetwin command line (arguments after the script name). Errors name the argument.
@@ -50,6 +66,8 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
         from: { type: 'string' },
         to: { type: 'string' },
         points: { type: 'string' },
+        channel: { type: 'string' },
+        amplitude: { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -93,7 +111,7 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
 
 function frequencyCommand(file: string, values: Record<string, unknown>): Parsed<CliCommand> {
   const errors: FieldError[] = [];
-  const numberOption = (key: 'from' | 'to' | 'points', fallback: number): number => {
+  const numberOption = (key: 'from' | 'to' | 'points' | 'amplitude', fallback: number): number => {
     if (values[key] === undefined) return fallback;
     const text = String(values[key]);
     const x = Number(text);
@@ -105,8 +123,20 @@ function frequencyCommand(file: string, values: Record<string, unknown>): Parsed
   const points = numberOption('points', DEFAULT_FREQUENCY_GRID.points);
   const format = (values['format'] ?? 'csv') as string;
   if (!(RESPONSE_FORMATS as readonly string[]).includes(format)) errors.push({ field: '--format', message: `--format must be csv or json, got "${format}"` });
+  const method = (values['method'] ?? 'closed-form') as string;
+  if (!(FREQUENCY_METHODS as readonly string[]).includes(method)) errors.push({ field: '--method', message: `--method must be closed-form or sim for frequency, got "${method}"` });
+  const channel = values['channel'] === undefined ? null : String(values['channel']);
+  if (channel !== null && channel !== 'reference' && channel !== 'torque') errors.push({ field: '--channel', message: `--channel must be reference or torque, got "${channel}"` });
+  const amplitude = values['amplitude'] === undefined ? null : numberOption('amplitude', NaN);
+  if (amplitude !== null && Number.isFinite(amplitude) && amplitude <= 0) errors.push({ field: '--amplitude', message: `--amplitude must be positive, got ${amplitude}` });
+  if (method !== 'sim') {
+    for (const k of ['channel', 'amplitude'] as const) if (values[k] !== undefined) errors.push({ field: `--${k}`, message: `--${k} sets the injected sine of --method sim` });
+  }
   if (errors.length > 0) return { ok: false, errors };
-  return { ok: true, value: { command: 'frequency', file, from, to, points, format: format as ResponseFormat } };
+  return {
+    ok: true,
+    value: { command: 'frequency', file, from, to, points, format: format as ResponseFormat, method: method as FrequencyMethod, channel: channel as 'reference' | 'torque' | null, amplitude },
+  };
 }
 
 function fail(field: string, message: string): { ok: false; errors: FieldError[] } {

@@ -1,4 +1,5 @@
 import { type FrequencyResponse } from '../../shared/frequency/frequency-response';
+import { type SineSweepResult } from '../../shared/frequency/twin-sine-sweep';
 
 const CSV_COLUMNS = [
   ['loopMagnitudeDb', (r: FrequencyResponse) => r.loop?.magnitudeDb],
@@ -9,20 +10,48 @@ const CSV_COLUMNS = [
   ['torqueToAnglePhaseDeg', (r: FrequencyResponse) => r.torqueToAngle.phaseDeg],
 ] as const;
 
+/** The twin's measured response on the same frequencies, column by column. */
+export interface MeasuredSeries {
+  channel: 'reference' | 'torque';
+  amplitude: number;
+  magnitudeDb: (number | null)[];
+  phaseDeg: (number | null)[];
+  distortion: (number | null)[];
+  saturated: boolean[];
+  stuck: boolean[];
+  /** Why a frequency has no figure, or null. */
+  reason: (string | null)[];
+}
+
+/** A sweep's points as parallel arrays beside the closed form's. */
+export function measuredSeries(sweep: SineSweepResult): MeasuredSeries {
+  const p = sweep.points;
+  return {
+    channel: sweep.channel,
+    amplitude: sweep.amplitude,
+    magnitudeDb: p.map((x) => x.magnitudeDb),
+    phaseDeg: p.map((x) => x.phaseDeg),
+    distortion: p.map((x) => x.distortion),
+    saturated: p.map((x) => x.saturated),
+    stuck: p.map((x) => x.stuck),
+    reason: p.map((x) => x.reason),
+  };
+}
+
 /**
  * `kinetwin frequency` as text. JSON: frequency (rad/s), loop, referenceToAngle and torqueToAngle
  * ({magnitudeDb, phaseDeg}, null in open loop for the first two), margins, stability, notes and
- * delayModel. CSV: one row per frequency; a path that does not exist or a value that is 0 or
- * unbounded leaves its cell empty.
+ * delayModel, and with --method sim `measured` (MeasuredSeries). CSV: one row per frequency; a
+ * path that does not exist or a value that is 0 or unbounded leaves its cell empty.
  */
-export function frequencyOutput(r: FrequencyResponse, format: 'csv' | 'json'): string {
-  if (format === 'json') return `${JSON.stringify(r, null, 2)}\n`;
-  const rows = [['frequency', ...CSV_COLUMNS.map(([name]) => name)].join(',')];
+export function frequencyOutput(r: FrequencyResponse, format: 'csv' | 'json', measured: MeasuredSeries | null = null): string {
+  if (format === 'json') return `${JSON.stringify(measured ? { ...r, measured } : r, null, 2)}\n`;
+  const cell = (v: number | null | undefined) => (v === null || v === undefined ? '' : String(v));
+  const header = ['frequency', ...CSV_COLUMNS.map(([name]) => name), ...(measured ? ['measuredMagnitudeDb', 'measuredPhaseDeg', 'measuredDistortion'] : [])];
+  const rows = [header.join(',')];
   r.frequency.forEach((w, i) => {
-    const cells = CSV_COLUMNS.map(([, series]) => {
-      const v = series(r)?.[i];
-      return v === null || v === undefined ? '' : String(v);
-    });
+    const cells = CSV_COLUMNS.map(([, series]) => cell(series(r)?.[i]));
+    if (measured) cells.push(cell(measured.magnitudeDb[i]), cell(measured.phaseDeg[i]), cell(measured.distortion[i]));
     rows.push([String(w), ...cells].join(','));
   });
   return `${rows.join('\n')}\n`;

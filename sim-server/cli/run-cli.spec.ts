@@ -166,7 +166,30 @@ describe('runCli', () => {
     expect(csv.err()).toMatch(/^kinetwin: open loop: there is no feedback/);
   });
 
+  it('frequency --method sim adds the twin measured by injected sines, equal to the closed form with every effect off', async () => {
+    const m = memoryIo(files);
+    expect(await runCli(['frequency', 'ok.json', '--method', 'sim', '--from', '0.5', '--to', '20', '--points', '4', '--format', 'json'], m.io)).toBe(0);
+    const doc = JSON.parse(m.out());
+    expect(doc.measured).toMatchObject({ channel: 'torque', amplitude: 1 });
+    doc.measured.magnitudeDb.forEach((x: number, i: number) => expect(x).toBeCloseTo(doc.torqueToAngle.magnitudeDb[i], 3));
+    doc.measured.phaseDeg.forEach((x: number, i: number) => expect(x).toBeCloseTo(doc.torqueToAngle.phaseDeg[i], 1));
+    expect(doc.measured.reason).toEqual([null, null, null, null]);
+
+    const csv = memoryIo(files);
+    expect(await runCli(['frequency', 'ok.json', '--method', 'sim', '--points', '2', '--from', '1', '--to', '2'], csv.io)).toBe(0);
+    expect(csv.out().split('\n')[0]).toMatch(/,measuredMagnitudeDb,measuredPhaseDeg,measuredDistortion$/);
+
+    // A transient slower than a run may last: no figure there, exit 3 naming the frequency.
+    const slow = memoryIo({ 'slow.json': JSON.stringify({ ...scenario, joint: { inertia: 1, damping: 0.001, stiffness: 1 } }) });
+    expect(await runCli(['frequency', 'slow.json', '--method', 'sim', '--points', '2', '--from', '1.5', '--to', '2'], slow.io)).toBe(3);
+    expect(slow.err()).toMatch(/the twin has no figure at 1\.5 rad\/s: the transient needs/);
+  });
+
   it.each([
+    [['frequency', 'ok.json', '--channel', 'torque'], '--channel'],
+    [['frequency', 'ok.json', '--method', 'sim', '--amplitude', '-1'], '--amplitude'],
+    [['frequency', 'ok.json', '--method', 'both'], '--method'],
+    [['frequency', 'ok.json', '--method', 'sim', '--channel', 'reference'], 'channel'],
     [['frequency', 'ok.json', '--points', '1'], '--points'],
     [['frequency', 'ok.json', '--from', '10', '--to', '1'], '--to'],
     [['frequency', 'ok.json', '--from', 'low'], '--from'],

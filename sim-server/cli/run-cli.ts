@@ -1,10 +1,11 @@
 import { frequencyResponseOf } from '../../shared/frequency/frequency-response';
+import { defaultSweepAmplitude, defaultSweepChannel, sineSweepOfTwin } from '../../shared/frequency/twin-sine-sweep';
 import { parseScenarioText } from '../../shared/scenario/parse-scenario';
 import { describeFieldErrors, type FieldError } from '../../shared/validation/field-errors';
 import { twinScenarioErrors } from '../../shared/twin/twin-scenario-errors';
 import { DEFAULT_RESPONSE_DT, parseCliArguments, USAGE } from './cli-arguments';
 import { checkReport, EXIT_INVALID_INPUT, EXIT_OK, EXIT_TWIN_STOPPED } from './check-command';
-import { frequencyOutput, frequencySummary } from './frequency-command';
+import { frequencyOutput, frequencySummary, measuredSeries, type MeasuredSeries } from './frequency-command';
 import { checkGridSize, responseChunks } from './response-command';
 import { solveByMethod } from './response-sources';
 
@@ -51,9 +52,21 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
   if (cmd.command === 'frequency') {
     const response = frequencyResponseOf(scenario.value, { from: cmd.from, to: cmd.to, points: cmd.points });
     if (!response.ok) return invalid(io, 'invalid arguments', response.errors.map((e) => ({ ...e, field: `--${e.field}` })), false);
-    await io.writeOut(frequencyOutput(response.value, cmd.format));
+    let measured: MeasuredSeries | null = null;
+    if (cmd.method === 'sim') {
+      const twinErrors = twinScenarioErrors(scenario.value);
+      if (twinErrors.length > 0) return invalid(io, `the twin cannot run ${cmd.file}`, twinErrors, false);
+      const channel = cmd.channel ?? defaultSweepChannel(scenario.value);
+      const sweep = sineSweepOfTwin(scenario.value, { frequencies: response.value.frequency, channel, amplitude: cmd.amplitude ?? defaultSweepAmplitude(scenario.value, channel) });
+      if (!sweep.ok) return invalid(io, `the twin's response of ${cmd.file} cannot be measured`, sweep.errors.map((e) => ({ ...e, field: e.field === 'frequencies' ? '--points' : e.field ? `--${e.field}` : '' })), false);
+      measured = measuredSeries(sweep.value);
+    }
+    await io.writeOut(frequencyOutput(response.value, cmd.format, measured));
     if (cmd.format === 'csv') io.writeErr(`kinetwin: ${frequencySummary(response.value)}\n`);
-    return EXIT_OK;
+    const missing = measured?.reason.findIndex((r) => r !== null) ?? -1;
+    if (missing < 0) return EXIT_OK;
+    io.writeErr(`kinetwin: the twin has no figure at ${response.value.frequency[missing]} rad/s: ${measured!.reason[missing]}\n`);
+    return EXIT_TWIN_STOPPED;
   }
   // Size the grid before solving: a twin run on a too-fine grid would cost minutes and memory.
   const grid = checkGridSize(cmd.dt, scenario.value.horizon);
