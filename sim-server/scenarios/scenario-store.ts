@@ -1,7 +1,6 @@
 import { and, asc, count, desc, eq, ilike, isNotNull, isNull, or, sql, type SQL } from 'drizzle-orm';
 import { alias } from 'drizzle-orm/pg-core';
 import { scenarioRevisions, scenarios, users } from '../../drizzle/schema';
-import type { ScenarioDetail } from '../../shared/protocol/api-types';
 import type { LibraryItem, LibraryPage, ParsedLibraryQuery, ScenarioStatus, SignOff } from '../../shared/protocol/library-api';
 import { parseScenario } from '../../shared/scenario/parse-scenario';
 import type { Scenario } from '../../shared/scenario/scenario-schema';
@@ -132,11 +131,4 @@ export function storedDocument(document: unknown, where: string): Scenario {
   const parsed = parseScenario(document);
   if (!parsed.ok) throw new Error(`stored ${where} no longer validates: ${describeFieldErrors(parsed.errors)}`);
   return parsed.value;
-}
-
-/** One scenario of the team, or null when it does not exist or belongs to another team. */
-export async function findTeamScenario(db: Database, teamId: number, id: number): Promise<ScenarioDetail | null> {
-  const row = await loadScenario(db, teamId, id);
-  if (!row) return null;
-  return { id: row.id, name: row.name, ownerName: row.ownerName, updatedAt: row.updatedAt, scenario: storedDocument(row.document, `scenario ${id}`) };
 }
