@@ -12,6 +12,12 @@ export type ResponseMethod = (typeof RESPONSE_METHODS)[number];
 /** The closed form's frequency response, or that and the twin's measured by injected sines. */
 export const FREQUENCY_METHODS = ['closed-form', 'sim'] as const;
 export type FrequencyMethod = (typeof FREQUENCY_METHODS)[number];
+/** What `kinetwin time` times: the closed form's solve and grid, or the twin's run on the grid. */
+export const TIME_METHODS = ['closed-form', 'sim'] as const;
+export type TimeMethod = (typeof TIME_METHODS)[number];
+/** Timed runs of `kinetwin time` when --runs is not given, and the most it takes. */
+export const DEFAULT_TIME_RUNS = 200;
+export const MAX_TIME_RUNS = 100_000;
 
 export type CliCommand =
   | { command: 'response'; file: string; dt: number; format: ResponseFormat; method: ResponseMethod }
@@ -28,11 +34,12 @@ export type CliCommand =
       channel: 'reference' | 'torque' | null;
       amplitude: number | null;
     }
+  | { command: 'time'; file: string; dt: number; method: TimeMethod; runs: number }
   | { command: 'help' };
 
-const COMMANDS = ['response', 'check', 'frequency'] as const;
+const COMMANDS = ['response', 'check', 'frequency', 'time'] as const;
 /** Options that belong to one command only; the others refuse them by name. */
-const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'] } as const;
+const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'] } as const;
 
 export const USAGE = `usage:
   kinetwin response FILE [--dt 0.001] [--format csv|json] [--method closed-form|sim|both]
@@ -46,6 +53,9 @@ export const USAGE = `usage:
       magnitude (dB) and phase (degrees) of the loop, reference-to-angle and torque-to-angle on
       log-spaced rad/s, with gain and phase margins, crossovers, bandwidth and the verdicts;
       --method sim adds the twin's response measured by injected sines of amplitude A
+  kinetwin time FILE [--method closed-form|sim] [--dt 0.001] [--runs 200]
+      times the work of "response" on the grid (after warm-up, in one process) and prints JSON:
+      method, runs, median_ms, p10_ms, p90_ms, samples
 exit codes: 0 ok, 1 limits not met (check), 2 invalid input, 3 the twin stopped early (what it has is printed)`;
 
 /**
@@ -68,6 +78,7 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
         points: { type: 'string' },
         channel: { type: 'string' },
         amplitude: { type: 'string' },
+        runs: { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -78,9 +89,9 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   }
   const { values, positionals } = parsed;
   if (values['help'] || positionals[0] === 'help') return { ok: true, value: { command: 'help' } };
-  if (positionals.length === 0) return fail('command', 'a command is needed: "response", "check" or "frequency"');
+  if (positionals.length === 0) return fail('command', 'a command is needed: "response", "check", "frequency" or "time"');
   const [command, file, ...extra] = positionals;
-  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use "response", "check" or "frequency"`);
+  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use "response", "check", "frequency" or "time"`);
   const name = command as (typeof COMMANDS)[number];
   if (file === undefined) return fail('FILE', `${name} needs a scenario FILE`);
   if (extra.length > 0) return fail('', `unexpected argument "${extra[0]}"`);
@@ -94,19 +105,40 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
     return { ok: true, value: { command: name, file, method: 'closed-form' } };
   }
   if (name === 'frequency') return frequencyCommand(file, values);
+  if (name === 'time') return timeCommand(file, values);
   const errors: FieldError[] = [];
-  let dt = DEFAULT_RESPONSE_DT;
-  if (values['dt'] !== undefined) {
-    const text = String(values['dt']);
-    dt = Number(text);
-    if (text.trim() === '' || !Number.isFinite(dt) || dt <= 0) errors.push({ field: '--dt', message: `--dt must be a positive number of seconds, got "${text}"` });
-  }
+  const dt = dtOption(values, errors);
   const format = (values['format'] ?? 'csv') as string;
   if (!(RESPONSE_FORMATS as readonly string[]).includes(format)) errors.push({ field: '--format', message: `--format must be csv or json, got "${format}"` });
   const method = (values['method'] ?? 'closed-form') as string;
   if (!(RESPONSE_METHODS as readonly string[]).includes(method)) errors.push({ field: '--method', message: `--method must be closed-form, sim or both, got "${method}"` });
   if (errors.length > 0) return { ok: false, errors };
   return { ok: true, value: { command: 'response', file, dt, format: format as ResponseFormat, method: method as ResponseMethod } };
+}
+
+/** --dt in seconds (DEFAULT_RESPONSE_DT when absent); a bad value adds its error. */
+function dtOption(values: Record<string, unknown>, errors: FieldError[]): number {
+  if (values['dt'] === undefined) return DEFAULT_RESPONSE_DT;
+  const text = String(values['dt']);
+  const dt = Number(text);
+  if (text.trim() === '' || !Number.isFinite(dt) || dt <= 0) errors.push({ field: '--dt', message: `--dt must be a positive number of seconds, got "${text}"` });
+  return dt;
+}
+
+function timeCommand(file: string, values: Record<string, unknown>): Parsed<CliCommand> {
+  const errors: FieldError[] = [];
+  const dt = dtOption(values, errors);
+  const method = (values['method'] ?? 'closed-form') as string;
+  if (!(TIME_METHODS as readonly string[]).includes(method)) errors.push({ field: '--method', message: `--method must be closed-form or sim for time, got "${method}"` });
+  let runs = DEFAULT_TIME_RUNS;
+  if (values['runs'] !== undefined) {
+    const text = String(values['runs']);
+    runs = Number(text);
+    if (!Number.isInteger(runs) || runs < 1 || runs > MAX_TIME_RUNS) errors.push({ field: '--runs', message: `--runs must be a whole number from 1 to ${MAX_TIME_RUNS}, got "${text}"` });
+  }
+  if (values['format'] !== undefined) errors.push({ field: '--format', message: '--format belongs to "response" and "frequency"; time prints JSON' });
+  if (errors.length > 0) return { ok: false, errors };
+  return { ok: true, value: { command: 'time', file, dt, method: method as TimeMethod, runs } };
 }
 
 function frequencyCommand(file: string, values: Record<string, unknown>): Parsed<CliCommand> {

@@ -185,7 +185,29 @@ describe('runCli', () => {
     expect(slow.err()).toMatch(/the twin has no figure at 1\.5 rad\/s: the transient needs/);
   });
 
+  it('time prints the timing JSON under its stable keys for the closed form and the twin, and exits 3 when the twin stops early', async () => {
+    for (const method of ['closed-form', 'sim']) {
+      const m = memoryIo(files);
+      expect(await runCli(['time', 'ok.json', '--method', method, '--dt', '0.01', '--runs', '7'], m.io)).toBe(0);
+      const doc = JSON.parse(m.out());
+      expect(Object.keys(doc)).toEqual(['method', 'runs', 'median_ms', 'p10_ms', 'p90_ms', 'samples']);
+      expect(doc).toMatchObject({ method, runs: 7, samples: 201 });
+      expect(doc.p10_ms).toBeLessThanOrEqual(doc.median_ms);
+      expect(doc.median_ms).toBeLessThanOrEqual(doc.p90_ms);
+    }
+    const stopped = memoryIo(files);
+    expect(await runCli(['time', 'runaway.json', '--method', 'sim', '--dt', '0.1', '--runs', '2'], stopped.io)).toBe(3);
+    expect(stopped.err()).toMatch(/the twin stopped early at t = .*; nothing was timed/);
+    expect(stopped.out()).toBe('');
+  });
+
   it.each([
+    [['time', 'ok.json', '--runs', '0'], '--runs'],
+    [['time', 'ok.json', '--runs', '2.5'], '--runs'],
+    [['time', 'ok.json', '--method', 'both'], '--method'],
+    [['time', 'ok.json', '--format', 'csv'], '--format'],
+    [['time', 'ok.json', '--points', '5'], '--points'],
+    [['time', 'ok.json', '--dt', '1e-9'], '--dt'],
     [['frequency', 'ok.json', '--channel', 'torque'], '--channel'],
     [['frequency', 'ok.json', '--method', 'sim', '--amplitude', '-1'], '--amplitude'],
     [['frequency', 'ok.json', '--method', 'both'], '--method'],

@@ -7,6 +7,7 @@ import { DEFAULT_RESPONSE_DT, parseCliArguments, USAGE } from './cli-arguments';
 import { checkReport, EXIT_INVALID_INPUT, EXIT_OK, EXIT_TWIN_STOPPED } from './check-command';
 import { frequencyOutput, frequencySummary, measuredSeries, type MeasuredSeries } from './frequency-command';
 import { checkGridSize, responseChunks } from './response-command';
+import { responseWork, timeWork } from './time-command';
 import { solveByMethod } from './response-sources';
 
 /** What the command line touches, passed in so the whole flow runs in tests without a process. */
@@ -67,6 +68,19 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     if (missing < 0) return EXIT_OK;
     io.writeErr(`kinetwin: the twin has no figure at ${response.value.frequency[missing]} rad/s: ${measured!.reason[missing]}\n`);
     return EXIT_TWIN_STOPPED;
+  }
+  if (cmd.command === 'time') {
+    const grid = checkGridSize(cmd.dt, scenario.value.horizon);
+    if (!grid.ok) return invalid(io, 'invalid arguments', grid.errors, false);
+    const work = responseWork(scenario.value, cmd.method, cmd.dt);
+    if (!work.ok) return invalid(io, `cannot solve ${cmd.file}`, work.errors, false);
+    const timed = timeWork(work.value, cmd.method, cmd.runs);
+    if (!timed.ok) {
+      io.writeErr(`kinetwin: ${timed.reason}; nothing was timed\n`);
+      return EXIT_TWIN_STOPPED;
+    }
+    await io.writeOut(`${JSON.stringify(timed.report, null, 2)}\n`);
+    return EXIT_OK;
   }
   // Size the grid before solving: a twin run on a too-fine grid would cost minutes and memory.
   const grid = checkGridSize(cmd.dt, scenario.value.horizon);
