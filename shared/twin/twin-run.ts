@@ -653,6 +653,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     inputs.push(added);
     forcing = forcingTermsOf({ ...scenario, inputs });
     if (started && added.delay === time) {
+      // A stretch left at a deadline ends here: the kick starts a new one.
+      resumed = null;
       stretch = forcing.stretchFrom(time, mergeEps);
       // Edges at `time` of the earlier terms were applied on arrival; only the new one's remains.
       applyJumpsAt(time, forcingTermsOf({ ...scenario, inputs: [added] }));
