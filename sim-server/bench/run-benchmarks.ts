@@ -4,6 +4,7 @@ import { benchChecks } from './checks-bench';
 import { benchClosedForm } from './closed-form-bench';
 import { benchLiveSessions } from './live-sessions-bench';
 import { benchSignIn } from './sign-in-bench';
+import { benchStiffRun } from './stiff-run-bench';
 import { benchTwin } from './twin-bench';
 
 /**
@@ -21,6 +22,7 @@ async function main() {
     ['closed form', benchClosedForm],
     ['twin', benchTwin],
     ['live runs', () => benchLiveSessions(databaseUrl)],
+    ['stiff live run', benchStiffRun],
     ['sign-in', () => benchSignIn(databaseUrl)],
     ['checks', () => benchChecks(databaseUrl)],
   ];
