@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { catalogueNumber } from '../scenario/parameter-catalogue';
 import { scenarioSchema } from '../scenario/scenario-schema';
 import { idField } from './library-api';
 import { DEFAULT_RUN_DT, MAX_RUN_SPEED, MIN_RUN_SPEED } from './run-events';
@@ -23,7 +24,7 @@ export const runStartSchema = z
     scenarioId: idField('scenarioId').optional(),
     scenario: scenarioSchema.optional(),
     speed: speedSchema.default(1),
-    dt: z.number().min(0.0005, { error: 'dt must be at least 0.0005 s' }).max(0.1, { error: 'dt must be at most 0.1 s' }).default(DEFAULT_RUN_DT),
+    dt: catalogueNumber('run.dt').default(DEFAULT_RUN_DT),
   })
   .refine((r) => (r.scenarioId === undefined) !== (r.scenario === undefined), {
     error: 'give exactly one of scenarioId or scenario',

@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { catalogueEntry, catalogueNumber as num } from './parameter-catalogue';
 
 /**
  * The scenario's `nonlinear` block: effects the twin adds to the linear joint so it departs from
@@ -11,60 +12,48 @@ import { z } from 'zod';
  * filled in for a file that omits the block.
  */
 
-/** Finest encoder the twin accepts, counts per revolution (a 32-bit count register). */
-export const MAX_ENCODER_COUNTS = 2 ** 32;
-/** Largest seed of the noise generator: it keeps a 32-bit state. */
-export const MAX_NOISE_SEED = 2 ** 32 - 1;
-
-const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
-const positive = (what: string) => finite(what).positive({ error: `${what} must be positive` });
-const nonNegative = (what: string) => finite(what).nonnegative({ error: `${what} must be zero or more` });
+/** Finest encoder the twin accepts, counts per revolution (from the parameter catalogue). */
+export const MAX_ENCODER_COUNTS = catalogueEntry('nonlinear.encoderCounts').max.value;
+/** Largest seed of the noise generator (from the parameter catalogue). */
+export const MAX_NOISE_SEED = catalogueEntry('nonlinear.noiseSeed').max.value;
 
 /** The gravity load of a joint that is not horizontal. */
 export const gravityLoadSchema = z.strictObject({
   /** Mass of the moving link and payload, kg. */
-  mass: positive('gravity.mass'),
+  mass: num('nonlinear.gravity.mass'),
   /** Distance from the joint axis to the centre of mass, m. */
-  arm: positive('gravity.arm'),
+  arm: num('nonlinear.gravity.arm'),
   /** Angle of the centre of mass from straight down when θ = 0, rad (π/2: horizontal at θ = 0). Default 0. */
-  offset: finite('gravity.offset').optional(),
+  offset: num('nonlinear.gravity.offset').optional(),
   /** Gravitational acceleration, m/s². Default 9.80665 (standard gravity). */
-  acceleration: positive('gravity.acceleration').optional(),
+  acceleration: num('nonlinear.gravity.acceleration').optional(),
 });
 
 /** The `nonlinear` block (strict: unknown keys are refused). */
 export const nonlinearSchema = z
   .strictObject({
     /** Symmetric limit on the drive torque at the joint (N × motor limit), N·m. Default none. */
-    torqueLimit: positive('torqueLimit').nullable().optional(),
+    torqueLimit: num('nonlinear.torqueLimit').nullable().optional(),
     /** Stop integrating while the drive saturates and the error pushes further into it (clamping). Default true. */
     antiWindup: z.boolean({ error: 'antiWindup must be true or false' }).optional(),
     /** Coulomb (sliding) friction torque at the joint, N·m. Default 0 (off). */
-    coulombFriction: nonNegative('coulombFriction').optional(),
+    coulombFriction: num('nonlinear.coulombFriction').optional(),
     /** Breakaway (static) friction torque at the joint, N·m, at least coulombFriction. Default: equal to coulombFriction. */
-    staticFriction: nonNegative('staticFriction').nullable().optional(),
+    staticFriction: num('nonlinear.staticFriction').nullable().optional(),
     /** Gravity load m·g·l·sin(θ + offset). Default none (a horizontal joint). */
     gravity: gravityLoadSchema.nullable().optional(),
     /** Drive dead band at the joint, N·m: drive torques within ±deadBand do not reach the joint. Default 0 (off). */
-    deadBand: nonNegative('deadBand').optional(),
+    deadBand: num('nonlinear.deadBand').optional(),
     /** Sampled controller only: apply each computed torque one sample period late. Default false. */
     computeDelay: z.boolean({ error: 'computeDelay must be true or false' }).optional(),
     /** Encoder resolution, counts per revolution (sampled controller only). Default none (exact angle). */
-    encoderCounts: z
-      .number({ error: 'encoderCounts must be a finite number' })
-      .int({ error: 'encoderCounts must be a whole number' })
-      .positive({ error: 'encoderCounts must be positive' })
-      .max(MAX_ENCODER_COUNTS, { error: `encoderCounts must be at most ${MAX_ENCODER_COUNTS}` })
+    encoderCounts: num('nonlinear.encoderCounts')
       .nullable()
       .optional(),
     /** Standard deviation of Gaussian noise on the measured angle, rad (sampled controller only). Default 0 (off). */
-    noiseStdDev: nonNegative('noiseStdDev').optional(),
+    noiseStdDev: num('nonlinear.noiseStdDev').optional(),
     /** Seed of the measurement-noise generator; the same seed gives the same run. Default 1. */
-    noiseSeed: z
-      .number({ error: 'noiseSeed must be a finite number' })
-      .int({ error: 'noiseSeed must be a whole number' })
-      .nonnegative({ error: 'noiseSeed must be zero or more' })
-      .max(MAX_NOISE_SEED, { error: `noiseSeed must be at most ${MAX_NOISE_SEED}` })
+    noiseSeed: num('nonlinear.noiseSeed')
       .optional(),
   })
   .superRefine((block, ctx) => {

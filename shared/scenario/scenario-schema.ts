@@ -1,49 +1,46 @@
 import { z } from 'zod';
 import { nonlinearSchema } from './nonlinear-schema';
+import { catalogueEntry, catalogueNumber as num } from './parameter-catalogue';
 
 /**
  * Kinetwin's scenario file, version 1: one joint, its controller, its initial state and the
  * forcing terms applied to it. SI units throughout, angles in radians. The README documents
- * every field; the limits below are the single source of those documented bounds.
+ * every field; the numeric ranges and their reasons live in the parameter catalogue.
  */
 
-/** Longest horizon a scenario may ask for, s. Longer runs belong in a batch job, not a bench. */
-export const MAX_HORIZON_S = 3600;
+/** Longest horizon a scenario may ask for, s (from the parameter catalogue). */
+export const MAX_HORIZON_S = catalogueEntry('horizon').max.value;
 /** Most forcing terms one scenario may carry (kicks included). */
 export const MAX_INPUT_TERMS = 64;
 export const MAX_NAME_LENGTH = 120;
 export const MAX_NOTES_LENGTH = 4000;
 
-// z.number() already rejects NaN and ±Infinity in zod 4; the messages say so in our words.
-const finite = (what: string) => z.number({ error: `${what} must be a finite number` });
-const positive = (what: string) => finite(what).positive({ error: `${what} must be positive` });
-const nonNegative = (what: string) => finite(what).nonnegative({ error: `${what} must be zero or more` });
 
 export const jointSchema = z.strictObject({
   /** Inertia referred to the joint, kg·m². */
-  inertia: positive('inertia'),
+  inertia: num('joint.inertia'),
   /** Viscous damping at the joint, N·m·s/rad. */
-  damping: nonNegative('damping'),
+  damping: num('joint.damping'),
   /** Torsional stiffness at the joint, N·m/rad. */
-  stiffness: nonNegative('stiffness'),
+  stiffness: num('joint.stiffness'),
   /** Gear ratio N: the joint receives N × motor torque; gains act on joint angle. */
-  gearRatio: positive('gearRatio').default(1),
+  gearRatio: num('joint.gearRatio').default(1),
 });
 
 export const controllerSchema = z.strictObject({
   mode: z.enum(['open-loop', 'pid'], { error: 'mode must be "open-loop" or "pid"' }),
   /** Proportional gain, N·m/rad of motor torque. */
-  kp: nonNegative('kp').default(0),
+  kp: num('controller.kp').default(0),
   /** Integral gain, N·m/(rad·s). */
-  ki: nonNegative('ki').default(0),
+  ki: num('controller.ki').default(0),
   /** Derivative gain, N·m·s/rad. */
-  kd: nonNegative('kd').default(0),
+  kd: num('controller.kd').default(0),
   /** Whether the derivative acts on the error (kicks on reference steps) or on the measured angle. */
   derivativeOn: z.enum(['error', 'measurement'], { error: 'derivativeOn must be "error" or "measurement"' }).default('error'),
   /** Time constant of the first-order filter on the derivative term, s (0 = unfiltered). */
-  derivativeFilter: nonNegative('derivativeFilter').default(0),
+  derivativeFilter: num('controller.derivativeFilter').default(0),
   /** Controller sample period, s, used by the twin only (null = continuous). */
-  samplePeriod: positive('samplePeriod').nullable().default(null),
+  samplePeriod: num('controller.samplePeriod').nullable().default(null),
 });
 
 export const inputShapes = ['impulse', 'step', 'ramp', 'pulse', 'sine', 'cosine', 'decay'] as const;
@@ -57,15 +54,15 @@ export const inputTermSchema = z
     channel: z.enum(inputChannels, { error: 'channel must be "reference" or "torque"' }),
     shape: z.enum(inputShapes, { error: `shape must be one of ${inputShapes.join(', ')}` }),
     /** rad or N·m (impulse: N·m·s; ramp: rad/s or N·m/s). */
-    amplitude: finite('amplitude'),
+    amplitude: num('inputs[].amplitude'),
     /** Time at which the term starts, s. */
-    delay: nonNegative('delay').default(0),
+    delay: num('inputs[].delay').default(0),
     /** Pulse width, s (pulse only). */
-    width: positive('width').optional(),
+    width: num('inputs[].width').optional(),
     /** Angular frequency ω0, rad/s (sine and cosine only). */
-    frequency: positive('frequency').optional(),
+    frequency: num('inputs[].frequency').optional(),
     /** Decay rate λ, 1/s (decay only). */
-    rate: nonNegative('rate').optional(),
+    rate: num('inputs[].rate').optional(),
   })
   .superRefine((term, ctx) => {
     if (term.shape === 'pulse' && term.width === undefined) {
@@ -84,11 +81,11 @@ export const inputTermSchema = z
 
 export const limitsSchema = z.strictObject({
   /** Largest acceptable overshoot of a reference step, %. */
-  overshootPercent: nonNegative('overshootPercent').nullable().default(null),
+  overshootPercent: num('limits.overshootPercent').nullable().default(null),
   /** Largest acceptable 2 % settling time, s. */
-  settlingTime: positive('settlingTime').nullable().default(null),
+  settlingTime: num('limits.settlingTime').nullable().default(null),
   /** Largest acceptable |steady-state error|, rad. */
-  steadyStateError: nonNegative('steadyStateError').nullable().default(null),
+  steadyStateError: num('limits.steadyStateError').nullable().default(null),
 });
 
 /** Effects the twin adds to the linear joint; defined beside the twin's other settings. */
@@ -106,10 +103,10 @@ export const scenarioSchema = z
     notes: z.string({ error: 'notes must be text' }).max(MAX_NOTES_LENGTH, { error: `notes must be at most ${MAX_NOTES_LENGTH} characters` }).default(''),
     joint: jointSchema,
     controller: controllerSchema,
-    initial: z.strictObject({ angle: finite('angle').default(0), velocity: finite('velocity').default(0) }).default({ angle: 0, velocity: 0 }),
+    initial: z.strictObject({ angle: num('initial.angle').default(0), velocity: num('initial.velocity').default(0) }).default({ angle: 0, velocity: 0 }),
     inputs: z.array(inputTermSchema).max(MAX_INPUT_TERMS, { error: `at most ${MAX_INPUT_TERMS} input terms are allowed` }).default([]),
     /** Simulated time span, s. */
-    horizon: positive('horizon').max(MAX_HORIZON_S, { error: `horizon must be at most ${MAX_HORIZON_S} s` }),
+    horizon: num('horizon'),
     limits: limitsSchema.default({ overshootPercent: null, settlingTime: null, steadyStateError: null }),
     nonlinear: nonlinearSchema.default({}),
   })

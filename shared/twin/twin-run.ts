@@ -30,6 +30,17 @@ export const TWIN_DEFAULTS: TwinSettings = {
   maxStepsPerChunk: 20000,
   /** Most stick/slip switches in one run; more means the friction model is being driven in circles. */
   maxFrictionEvents: 100000,
+  /**
+   * The work budget, in right-hand-side and event-function evaluations: by simulated time t a
+   * run may have spent workBase + workPerSecond × t + workPerSample × (output and controller
+   * samples reached). Paced rather than totalled, so a scenario that grinds is stopped early
+   * instead of at its horizon. The parameter catalogue refuses impossible values; this bounds
+   * stiff combinations of possible ones. Sized from measurements (freeze-readme): the demo
+   * scenarios spend under 1 % of workBase, a 10 s 1 ms sampled loop with every effect ~4.4 per sample.
+   */
+  workBase: 1_000_000,
+  workPerSecond: 100_000,
+  workPerSample: 20,
 };
 
 /** Numerical settings of a twin run; TWIN_DEFAULTS documents each. */
@@ -42,10 +53,28 @@ export interface TwinSettings {
   velocityBound: number;
   maxStepsPerChunk: number;
   maxFrictionEvents: number;
+  workBase: number;
+  workPerSecond: number;
+  workPerSample: number;
 }
 
 /** Settings a caller may override; the rest come from TWIN_DEFAULTS. */
 export type TwinOptions = Partial<TwinSettings>;
+
+/**
+ * A wall-time limit for one advance call. shared/ reads no clock, so the caller passes its own;
+ * `deadline` is in the units of `now()` (e.g. performance.now(), ms).
+ */
+export interface AdvanceLimits {
+  deadline: number;
+  now: () => number;
+}
+
+/** The work a run has spent, and its allowance at the time reached, in right-hand-side and event-function evaluations. */
+export interface TwinWork {
+  evaluations: number;
+  allowance: number;
+}
 
 /** Samples on the output grid; parallel arrays in time order. */
 export interface TwinSamples {
@@ -115,8 +144,14 @@ export interface TwinRun {
   readonly inputs: readonly InputTerm[];
   /** First action of each nonlinear effect so far, in time order. */
   readonly effects: readonly EffectOnset[];
-  /** Integrates up to `until` (clamped to the horizon) and returns the new grid samples. */
-  advance(until: number): TwinTrace;
+  /** Work spent so far against the run's work budget. */
+  readonly work: TwinWork;
+  /**
+   * Integrates up to `until` (clamped to the horizon) and returns the new grid samples. With
+   * `limits`, returns early at an integrator step boundary once the deadline has passed (after
+   * at least one step, so every call makes progress); call again to go on from there.
+   */
+  advance(until: number, limits?: AdvanceLimits): TwinTrace;
   /**
    * Appends a forcing term starting at the current time (or later), for kicks. Returns the term as
    * added, which the closed form can take by superposition, or field errors.
@@ -191,6 +226,16 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   let frictionEvents = 0;
   /** Last accepted odex step, s; the first step of the next segment starts from it. */
   let lastStep = 1e-4;
+  /** Right-hand-side and event-function evaluations so far (the work budget's unit). */
+  let evaluations = 0;
+  /** The work budget by simulated time t (see TWIN_DEFAULTS.workBase). */
+  const allowance = (t: number) => o.workBase + o.workPerSecond * t + o.workPerSample * (nextIndex + nextSample);
+  const overBudget = (t: number) => evaluations > allowance(t);
+  /**
+   * A stretch left at a step boundary when a deadline passed: where it began and the odex steps
+   * spent on it, so the per-stretch step bound means the same whether or not it was interrupted.
+   */
+  let resumed: { from: number; steps: number } | null = null;
 
   // Sampled controller: state, held torque request, the request waiting out a compute delay.
   const gains: SampledPidGains = {
@@ -239,6 +284,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
 
   const rates = new Array<number>(stateSize).fill(0);
   const rhs = (t: number, state: number[]): number[] => {
+    evaluations++;
     const reference = continuousLoop ? stretch.reference(t) : 0;
     const requested = continuousLoop ? continuousRequest(state, t, reference) : requestedTorque(state, t);
     const net = netTorque(state, t, requested);
@@ -359,8 +405,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     return startAcceleration * endAcceleration <= 0;
   };
 
-  function advance(until: number): TwinTrace {
+  const workMessage = (t: number) =>
+    `work budget: ${evaluations.toExponential(2).replace('e+', 'e')} evaluations by t = ${t.toFixed(4)} s, over the twin's allowance of ${o.workBase} + ${o.workPerSecond} per simulated second + ${o.workPerSample} per sample; the scenario is too stiff, or switches friction too often, for the twin to follow (check the gains against the inertia)`;
+
+  function advance(until: number, limits?: AdvanceLimits): TwinTrace {
     const target = Math.min(until, horizon);
+    const pastDeadline = limits ? () => limits.now() >= limits.deadline : () => false;
     // The last odex call may end up to one chunk past the target; its grid points are kept.
     const lastWanted = Math.min(lastIndex, Math.floor((target + o.maxChunk) / dt + 1e-9));
     const capacity = Math.max(0, lastWanted - nextIndex + 1);
@@ -403,22 +453,35 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
      * first friction event (found on the dense output, which `active` must provide for an event).
      */
     const integrateStretch = (active: Solver, start: number, end: number) => {
-      let halt: 'bound' | 'event' | null = null;
+      let halt: 'bound' | 'event' | 'work' | 'deadline' | null = null;
       let eventTime = end;
       // Start with the last accepted step: restarting from odex's default 1e-4 s at every chunk
       // costs more steps than the chunk itself needs.
       active.initialStepSize = Math.min(lastStep, end - start);
+      active.maxSteps = Math.max(1, o.maxStepsPerChunk - (resumed?.steps ?? 0));
       const result = active.solve(rhs, start, y.slice(), end, (step, xOld, x, state, dense) => {
+        // Stops at a step boundary keep the state there (odex's result then reports the target).
+        const haltHere = (why: 'work' | 'deadline') => {
+          halt = why;
+          eventTime = x;
+          for (let c = 0; c < stateSize; c++) eventState[c] = state[c]!;
+          return false;
+        };
         if (step === 1) return;
         lastStep = x - xOld;
         if (outOfBounds(state)) {
           halt = 'bound';
           return false;
         }
-        if (!dense) return;
+        if (!dense) {
+          if (overBudget(x)) return haltHere('work');
+          if (x < end - eps && pastDeadline()) return haltHere('deadline');
+          return;
+        }
         let stepEnd = x;
         if (frictionOn) {
           const g = (t: number) => {
+            evaluations++;
             for (let c = 0; c < stateSize; c++) eventState[c] = dense(c, t);
             return frictionEvent(eventState, t);
           };
@@ -447,9 +510,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
           for (let c = 0; c < stateSize; c++) stepState[c] = dense(c, tk);
           emit(tk, stepState);
         }
-        return halt === 'event' ? false : undefined;
+        if (halt === 'event') return false;
+        if (overBudget(x)) return haltHere('work');
+        if (x < end - eps && pastDeadline()) return haltHere('deadline');
+        return undefined;
       });
-      return { result, halt: halt as 'bound' | 'event' | null, eventTime };
+      return { result, halt: halt as 'bound' | 'event' | 'work' | 'deadline' | null, eventTime };
     };
 
     /** After arriving at the end of a stretch: false when a bound stopped the run there. */
@@ -480,7 +546,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         // edges: nothing on the joint changes before `end`, so the state stays put exactly.
         while (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps) emit(gridTime(nextIndex), y);
         arriveAt(end);
-        if (!settleArrival()) break;
+        if (!settleArrival() || pastDeadline()) break;
         continue;
       }
       const gridInside = nextIndex <= lastWanted && gridTime(nextIndex) < end - eps;
@@ -491,21 +557,39 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       const tryPlain = !gridInside && (!frictionOn || slip !== 0);
       const startAcceleration = tryPlain && frictionOn ? rhs(segmentStart, y)[VELOCITY]! : 0;
       let segment = integrateStretch(tryPlain ? plainSolver : solver, segmentStart, end);
-      if (tryPlain && frictionOn && segment.halt === null && segment.result.outcome === Outcome.Converged && maySlideToRest(startAcceleration, segment.result.y, end)) {
+      // A plain stretch left at the deadline is checked like a finished one: the slide may have ended inside.
+      const plainEnd = segment.halt === 'deadline' ? { y: eventState, t: segment.eventTime } : { y: segment.result.y, t: end };
+      const plainDone = segment.halt === null ? segment.result.outcome === Outcome.Converged : segment.halt === 'deadline';
+      if (tryPlain && frictionOn && plainDone && maySlideToRest(startAcceleration, plainEnd.y, plainEnd.t)) {
         segment = integrateStretch(solver, segmentStart, end);
       }
       const { result, halt, eventTime } = segment;
+      const stretchFrom = resumed?.from ?? segmentStart;
       if (halt === 'bound') {
         stopAt(result.xEnd, boundMessage(result.y, result.xEnd));
         break;
       }
+      if (halt === 'work') {
+        for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
+        stopAt(eventTime, workMessage(eventTime));
+        break;
+      }
       if (result.outcome === Outcome.MaxStepsExceeded) {
         stopAt(
-          segmentStart,
-          `integrator work bound: odex used its ${o.maxStepsPerChunk} steps between t = ${segmentStart.toFixed(4)} s and ${end.toFixed(4)} s; the scenario is too stiff or fast for the twin at these tolerances`,
+          stretchFrom,
+          `integrator work bound: odex used its ${o.maxStepsPerChunk} steps between t = ${stretchFrom.toFixed(4)} s and ${end.toFixed(4)} s; the scenario is too stiff or fast for the twin at these tolerances`,
         );
         break;
       }
+      if (halt === 'deadline') {
+        // Left at a step boundary inside the stretch: no edge, sample or event lies before it,
+        // so the run goes on from the state there without arriving anywhere.
+        for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
+        resumed = { from: stretchFrom, steps: (resumed?.steps ?? 0) + result.nStep };
+        time = eventTime;
+        break;
+      }
+      resumed = null;
       if (halt === 'event') {
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
         // A slide ends exactly at rest; the bisection leaves |v| at roundoff level past zero.
@@ -523,6 +607,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         arriveAt(end);
       }
       if (!settleArrival()) break;
+      if (overBudget(time)) {
+        stopAt(time, workMessage(time));
+        break;
+      }
+      if (pastDeadline()) break;
     }
     if (nextIndex > lastIndex) done = true;
     return {
@@ -564,6 +653,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     inputs.push(added);
     forcing = forcingTermsOf({ ...scenario, inputs });
     if (started && added.delay === time) {
+      // A stretch left at a deadline ends here: the kick starts a new one.
+      resumed = null;
       stretch = forcing.stretchFrom(time, mergeEps);
       // Edges at `time` of the earlier terms were applied on arrival; only the new one's remains.
       applyJumpsAt(time, forcingTermsOf({ ...scenario, inputs: [added] }));
@@ -591,6 +682,9 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     },
     get effects() {
       return effectOnsets(onsets, scenario);
+    },
+    get work() {
+      return { evaluations, allowance: allowance(time) };
     },
     horizon,
     dt,

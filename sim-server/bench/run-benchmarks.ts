@@ -5,6 +5,7 @@ import { benchClosedForm } from './closed-form-bench';
 import { benchFrequency } from './frequency-bench';
 import { benchLiveSessions } from './live-sessions-bench';
 import { benchSignIn } from './sign-in-bench';
+import { benchStiffRun } from './stiff-run-bench';
 import { benchTwin } from './twin-bench';
 
 /**
@@ -23,6 +24,7 @@ async function main() {
     ['frequency', benchFrequency],
     ['twin', benchTwin],
     ['live runs', () => benchLiveSessions(databaseUrl)],
+    ['stiff live run', benchStiffRun],
     ['sign-in', () => benchSignIn(databaseUrl)],
     ['checks', () => benchChecks(databaseUrl)],
   ];

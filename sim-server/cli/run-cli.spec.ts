@@ -47,6 +47,15 @@ const files = {
     inputs: [{ channel: 'reference', shape: 'step', amplitude: 1 }],
     nonlinear: { torqueLimit: 2 },
   }),
+  // In every catalogued range, yet a grind for the twin (largest kd, 1 g·m², 1 µs loop, friction).
+  'grind.json': JSON.stringify({
+    ...scenario,
+    joint: { inertia: 1e-3, damping: 0.08, stiffness: 0 },
+    controller: { mode: 'pid', kp: 10, ki: 2, kd: 1e7, derivativeOn: 'measurement', samplePeriod: 1e-6 },
+    inputs: [{ channel: 'reference', shape: 'step', amplitude: 0.8, delay: 0.2 }],
+    horizon: 3,
+    nonlinear: { torqueLimit: 1.5, coulombFriction: 0.05, staticFriction: 0.08 },
+  }),
   'encoder-continuous.json': JSON.stringify({ ...scenario, controller: { mode: 'pid', kp: 2 }, inputs: [], nonlinear: { encoderCounts: 1024 } }),
   // s³ + s + 10 = (s + 2)(s² − 2s + 5): poles −2 and 1 ± 2i, so the angle grows like e^t.
   'runaway.json': JSON.stringify({ ...scenario, joint: { inertia: 1, damping: 0, stiffness: 0 }, controller: { mode: 'pid', kp: 1, ki: 10 }, initial: { angle: 0.1, velocity: 0 }, inputs: [], horizon: 100 }),
@@ -223,6 +232,16 @@ describe('runCli', () => {
     expect(await runCli(argv, m.io)).toBe(2);
     expect(m.err()).toContain(field);
   });
+
+  it('stops the twin of a grinding scenario at the work budget and says so, keeping the rows up to there', async () => {
+    const m = memoryIo(files);
+    expect(await runCli(['response', 'grind.json', '--method', 'sim', '--dt', '0.001'], m.io)).toBe(3);
+    expect(m.err()).toMatch(/^kinetwin: the twin stopped early at t = 0\.\d{4} s of \S+ s: work budget: .* evaluations by t = 0\.\d{4} s, over the twin's allowance/);
+    const rows = m.out().trim().split('\n');
+    expect(rows.length).toBeGreaterThan(200);
+    expect(rows.length).toBeLessThan(3002);
+    expect(rows.some((r) => r.includes('NaN'))).toBe(false);
+  }, 60_000);
 
   it('check reports superposition, shift and the linear range, and explains a torque limit', async () => {
     const linear = memoryIo(files);

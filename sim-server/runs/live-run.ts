@@ -14,10 +14,18 @@ export const MAX_SIM_PER_FAST_TICK_S = 0.5;
  * time, so this bounds how far past the last frame a kick can land.
  */
 export const LIVE_MAX_CHUNK_S = 0.05;
+/**
+ * Longest wall time one tick computes, ms. The twin returns at the first step boundary past it
+ * and the run yields to the event loop before going on, so a stiff run never holds the server
+ * (every other run, every request) for more than about this long.
+ */
+export const LIVE_SLICE_MS = 4;
 
 export interface LiveRunOptions {
   speed: number;
   dt: number;
+  /** ms; LIVE_SLICE_MS by default. null computes each tick to its target (only the bench's "before" figure). */
+  sliceMs?: number | null;
 }
 
 export interface LiveRunSink {
@@ -39,11 +47,14 @@ export interface LiveRun {
 
 /**
  * Paces a twin run against the wall clock (speed × real time, or as fast as possible when
- * speed is 0) and hands its samples to the sink in batches. Every tick does a bounded amount of
- * work and then yields, so many runs share one event loop.
+ * speed is 0) and hands its samples to the sink in batches. Every tick computes for at most
+ * LIVE_SLICE_MS and then yields, so many runs share one event loop; a run over the twin's work
+ * budget ends with reason "bound" and the twin's message.
  */
 export function startLiveRun(runId: string, scenario: Scenario, options: LiveRunOptions, sink: LiveRunSink): LiveRun {
   const twin = createTwinRun(scenario, { dt: options.dt, maxChunk: Math.max(options.dt, LIVE_MAX_CHUNK_S) });
+  const sliceMs = options.sliceMs === undefined ? LIVE_SLICE_MS : options.sliceMs;
+  const now = () => performance.now();
   const history = new TraceHistory(MAX_SCRUB_HISTORY);
   let speed = options.speed;
   let paused = false;
@@ -76,8 +87,14 @@ export function startLiveRun(runId: string, scenario: Scenario, options: LiveRun
     sink.end({ runId, reason, message, simulatedTime: shownTime });
   };
 
-  const emitUpTo = (target: number) => {
-    if (ahead.t.length === 0 || ahead.t[ahead.t.length - 1]! < target) ahead = concatTrace(ahead, twin.advance(target));
+  /** Emits the samples up to `target`; false when the slice ran out before the twin got there. */
+  const emitUpTo = (target: number): boolean => {
+    let caughtUp = true;
+    if (ahead.t.length === 0 || ahead.t[ahead.t.length - 1]! < target) {
+      const limits = sliceMs === null ? undefined : { deadline: now() + sliceMs, now };
+      ahead = concatTrace(ahead, twin.advance(target, limits));
+      caughtUp = twin.done || twin.time >= Math.min(target, twin.horizon) - 1e-12;
+    }
     const cut = countUpTo(ahead, target);
     if (cut > 0) {
       const shown = sliceTrace(ahead, 0, cut);
@@ -86,17 +103,19 @@ export function startLiveRun(runId: string, scenario: Scenario, options: LiveRun
       shownTime = shown.t[cut - 1]!;
     }
     ahead = sliceTrace(ahead, cut, ahead.t.length);
+    return caughtUp;
   };
 
   function tick() {
     cancelPending = null;
     if (finished || paused) return;
     const target = speed > 0 ? paceStartSim + ((performance.now() - paceStartWall) / 1000) * speed : shownTime + MAX_SIM_PER_FAST_TICK_S;
-    emitUpTo(target);
+    const caughtUp = emitUpTo(target);
     const drained = ahead.t.length === 0;
     if (twin.stop && drained) return finish('bound', twin.stop.message);
     if (twin.done && drained) return finish('finished', `Reached the horizon, t = ${shownTime.toFixed(3)} s.`);
-    schedule(speed > 0 ? FRAME_INTERVAL_MS : null);
+    // Behind its target, the run goes on at once, but only after the event loop has had its turn.
+    schedule(speed > 0 && caughtUp ? FRAME_INTERVAL_MS : null);
   }
 
   const restartPacing = () => {

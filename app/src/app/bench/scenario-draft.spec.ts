@@ -34,7 +34,7 @@ describe('editedScenario', () => {
       ok: false,
       errors: [
         { field: 'joint.inertia', message: 'inertia must be positive' },
-        { field: 'horizon', message: 'horizon must be at most 3600 s' },
+        { field: 'horizon', message: 'horizon must be at most 3600 s: longer runs belong in a batch job, not a bench' },
       ],
     });
   });
