@@ -1,5 +1,6 @@
 import { absComplex } from '../closed-form/complex-number';
 import { resolveNonlinear } from '../scenario/nonlinear-schema';
+import { plantCautions } from '../scenario/plant-cautions';
 import { type Scenario } from '../scenario/scenario-schema';
 import { type Parsed } from '../validation/field-errors';
 import { type FrequencyChannel } from './frequency-channel';
@@ -71,6 +72,7 @@ export function frequencyResponseOf(scenario: Scenario, grid: FrequencyGridReque
   const f = frequencies.value;
   const channels = loopChannelsOf(scenario);
   const report = marginsOf(channels.loop, channels.loopRational, channels.referenceToAngle, channels.characteristic, grid.from, grid.to);
+  report.notes.push(...plantCautions(scenario));
   const left = nonlinearEffectsLeftOut(scenario);
   if (left.length > 0) report.notes.push(`the linear model's response: ${left.join(', ')} ${left.length > 1 ? 'are' : 'is'} not in it`);
   return {
