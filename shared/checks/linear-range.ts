@@ -1,6 +1,7 @@
 import type { Scenario } from '../scenario/scenario-schema';
 import type { TwinOptions } from '../twin/twin-run';
 import { CHECK_DEFAULTS, delayTerms, scaleTerms } from './check-verdict';
+import { searchScale } from './scale-search';
 import { SUPERPOSITION_DEFAULTS, superpositionCheck, type SuperpositionResult } from './superposition-check';
 
 /** Defaults of the linear-range search; the README quotes these. */
@@ -57,64 +58,48 @@ export interface LinearRangeResult {
 export function linearRange(scenario: Scenario, options: LinearRangeOptions = {}): LinearRangeResult {
   const minScale = options.minScale ?? LINEAR_RANGE_DEFAULTS.minScale;
   const maxScale = options.maxScale ?? LINEAR_RANGE_DEFAULTS.maxScale;
-  const width = options.relativeWidth ?? LINEAR_RANGE_DEFAULTS.relativeWidth;
-  if (!(minScale > 0 && maxScale > minScale && width > 0)) {
-    throw new RangeError(`need 0 < minScale < maxScale and relativeWidth > 0, got ${minScale}, ${maxScale}, ${width}`);
-  }
   const u1 = scenario.inputs;
   const u2 = delayTerms(u1, scenario.horizon * SUPERPOSITION_DEFAULTS.secondInputDelayFraction);
-  let checks = 0;
-  const checkAt = (scale: number) => {
-    checks++;
-    return superpositionCheck(scenario, {
-      u1: scaleTerms(u1, scale),
-      u2: scaleTerms(u2, scale),
-      threshold: options.threshold ?? CHECK_DEFAULTS.threshold,
-      alpha: options.alpha,
-      twin: options.twin,
-    });
-  };
-  const top = checkAt(maxScale);
-  const bottom = checkAt(minScale);
-  if (top.pass && bottom.pass) {
-    return { scale: maxScale, smallestScale: null, bracket: [maxScale, null], passesAtMax: true, checks, failure: null, summary: `superposition holds at every end of the range tried, ${minScale} to ${maxScale}` };
-  }
-  if (!top.pass && !bottom.pass) {
-    return { scale: null, smallestScale: null, bracket: [null, minScale], passesAtMax: false, checks, failure: bottom, summary: `superposition fails at both ends of the range tried (${minScale} and ${maxScale}): ${bottom.reason}` };
-  }
-  // One crossing between the ends: bisect on log s, keeping `good` passing and `bad` failing.
-  let good = top.pass ? maxScale : minScale;
-  let bad = top.pass ? minScale : maxScale;
-  let failure = top.pass ? bottom : top;
-  for (let i = 0; i < LINEAR_RANGE_DEFAULTS.maxIterations && Math.max(good, bad) / Math.min(good, bad) > 1 + width; i++) {
-    const mid = Math.sqrt(good * bad);
-    const verdict = checkAt(mid);
-    if (verdict.pass) good = mid;
-    else {
-      bad = mid;
-      failure = verdict;
+  const found = searchScale(
+    (scale) =>
+      superpositionCheck(scenario, {
+        u1: scaleTerms(u1, scale),
+        u2: scaleTerms(u2, scale),
+        threshold: options.threshold ?? CHECK_DEFAULTS.threshold,
+        alpha: options.alpha,
+        twin: options.twin,
+      }),
+    { minScale, maxScale, relativeWidth: options.relativeWidth ?? LINEAR_RANGE_DEFAULTS.relativeWidth, maxIterations: LINEAR_RANGE_DEFAULTS.maxIterations },
+  );
+  const { checks } = found;
+  switch (found.kind) {
+    case 'everywhere':
+      return { scale: maxScale, smallestScale: null, bracket: [maxScale, null], passesAtMax: true, checks, failure: null, summary: `superposition holds at every end of the range tried, ${minScale} to ${maxScale}` };
+    case 'nowhere':
+      return { scale: null, smallestScale: null, bracket: [null, minScale], passesAtMax: false, checks, failure: found.failure, summary: `superposition fails at both ends of the range tried (${minScale} and ${maxScale}): ${found.failure.reason}` };
+    case 'from': {
+      const [g, b] = [+found.good.toPrecision(3), +found.bad.toPrecision(3)];
+      return {
+        scale: maxScale,
+        smallestScale: found.good,
+        bracket: [found.good, null],
+        passesAtMax: true,
+        checks,
+        failure: found.failure,
+        summary: `superposition fails below input scale ${g} (at ${b}: ${found.failure.reason}) and holds from there up to ${maxScale}: a bounded effect dominates small moves`,
+      };
+    }
+    case 'up-to': {
+      const [g, b] = [+found.good.toPrecision(3), +found.bad.toPrecision(3)];
+      return {
+        scale: found.good,
+        smallestScale: null,
+        bracket: [found.good, found.bad],
+        passesAtMax: false,
+        checks,
+        failure: found.failure,
+        summary: `superposition holds up to input scale ${g} (fails at ${b}: ${found.failure.reason})`,
+      };
     }
   }
-  const g = +good.toPrecision(3);
-  const b = +bad.toPrecision(3);
-  if (top.pass) {
-    return {
-      scale: maxScale,
-      smallestScale: good,
-      bracket: [good, null],
-      passesAtMax: true,
-      checks,
-      failure,
-      summary: `superposition fails below input scale ${g} (at ${b}: ${failure.reason}) and holds from there up to ${maxScale}: a bounded effect dominates small moves`,
-    };
-  }
-  return {
-    scale: good,
-    smallestScale: null,
-    bracket: [good, bad],
-    passesAtMax: false,
-    checks,
-    failure,
-    summary: `superposition holds up to input scale ${g} (fails at ${b}: ${failure.reason})`,
-  };
 }
