@@ -35,11 +35,14 @@ export type CliCommand =
       amplitude: number | null;
     }
   | { command: 'time'; file: string; dt: number; method: TimeMethod; runs: number }
+  | { command: 'linearize'; file: string; angle: number; holding: 'feed-forward' | 'disturbance'; tolerance: number }
   | { command: 'help' };
 
-const COMMANDS = ['response', 'check', 'frequency', 'time'] as const;
+const COMMANDS = ['response', 'check', 'frequency', 'time', 'linearize'] as const;
+/** Default agreement for `kinetwin linearize`'s operating range: 1 % of the peak. */
+export const DEFAULT_LINEARIZE_TOLERANCE = 0.01;
 /** Options that belong to one command only; the others refuse them by name. */
-const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'] } as const;
+const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'], linearize: ['angle', 'holding', 'tolerance'] } as const;
 
 export const USAGE = `usage:
   kinetwin response FILE [--dt 0.001] [--format csv|json] [--method closed-form|sim|both]
@@ -56,6 +59,10 @@ export const USAGE = `usage:
   kinetwin time FILE [--method closed-form|sim] [--dt 0.001] [--runs 200]
       times the work of "response" on the grid (after warm-up, in one process) and prints JSON:
       method, runs, median_ms, p10_ms, p90_ms, samples
+  kinetwin linearize FILE --angle THETA0 [--holding feed-forward|disturbance] [--tolerance 0.01]
+      the linear model of a gravity-loaded joint about THETA0 (rad, or e.g. 60deg) as a scenario
+      file, with its effective stiffness, holding torque and the largest move for which it
+      agrees with the twin within the tolerance (a fraction of the peak)
 exit codes: 0 ok, 1 limits not met (check), 2 invalid input, 3 the twin stopped early (what it has is printed)`;
 
 /**
@@ -79,6 +86,9 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
         channel: { type: 'string' },
         amplitude: { type: 'string' },
         runs: { type: 'string' },
+        angle: { type: 'string' },
+        holding: { type: 'string' },
+        tolerance: { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -89,9 +99,9 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   }
   const { values, positionals } = parsed;
   if (values['help'] || positionals[0] === 'help') return { ok: true, value: { command: 'help' } };
-  if (positionals.length === 0) return fail('command', 'a command is needed: "response", "check", "frequency" or "time"');
+  if (positionals.length === 0) return fail('command', 'a command is needed: "response", "check", "frequency", "time" or "linearize"');
   const [command, file, ...extra] = positionals;
-  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use "response", "check", "frequency" or "time"`);
+  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use "response", "check", "frequency", "time" or "linearize"`);
   const name = command as (typeof COMMANDS)[number];
   if (file === undefined) return fail('FILE', `${name} needs a scenario FILE`);
   if (extra.length > 0) return fail('', `unexpected argument "${extra[0]}"`);
@@ -106,6 +116,7 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   }
   if (name === 'frequency') return frequencyCommand(file, values);
   if (name === 'time') return timeCommand(file, values);
+  if (name === 'linearize') return linearizeCommand(file, values);
   const errors: FieldError[] = [];
   const dt = dtOption(values, errors);
   const format = (values['format'] ?? 'csv') as string;
@@ -123,6 +134,30 @@ function dtOption(values: Record<string, unknown>, errors: FieldError[]): number
   const dt = Number(text);
   if (text.trim() === '' || !Number.isFinite(dt) || dt <= 0) errors.push({ field: '--dt', message: `--dt must be a positive number of seconds, got "${text}"` });
   return dt;
+}
+
+function linearizeCommand(file: string, values: Record<string, unknown>): Parsed<CliCommand> {
+  const errors: FieldError[] = [];
+  let angle = NaN;
+  if (values['angle'] === undefined) errors.push({ field: '--angle', message: 'linearize needs the operating angle: --angle 1.05 (rad) or --angle 60deg' });
+  else {
+    const text = String(values['angle']).trim();
+    const m = /^(.+?)(deg)?$/.exec(text);
+    const x = m && m[1]!.trim() !== '' ? Number(m[1]) : NaN;
+    if (!Number.isFinite(x)) errors.push({ field: '--angle', message: `--angle must be an angle in rad or with "deg", got "${text}"` });
+    else angle = m![2] ? (x * Math.PI) / 180 : x;
+  }
+  const holding = (values['holding'] ?? 'feed-forward') as string;
+  if (holding !== 'feed-forward' && holding !== 'disturbance') errors.push({ field: '--holding', message: `--holding must be feed-forward or disturbance, got "${holding}"` });
+  let tolerance = DEFAULT_LINEARIZE_TOLERANCE;
+  if (values['tolerance'] !== undefined) {
+    const text = String(values['tolerance']);
+    tolerance = Number(text);
+    if (!(tolerance > 0 && tolerance < 1)) errors.push({ field: '--tolerance', message: `--tolerance must be a fraction between 0 and 1 (0.01 is 1 %), got "${text}"` });
+  }
+  for (const k of ['format', 'dt', 'method'] as const) if (values[k] !== undefined) errors.push({ field: `--${k}`, message: `--${k} does not apply to linearize, which prints JSON` });
+  if (errors.length > 0) return { ok: false, errors };
+  return { ok: true, value: { command: 'linearize', file, angle, holding: holding as 'feed-forward' | 'disturbance', tolerance } };
 }
 
 function timeCommand(file: string, values: Record<string, unknown>): Parsed<CliCommand> {

@@ -210,7 +210,36 @@ describe('runCli', () => {
     expect(stopped.out()).toBe('');
   });
 
+  it('linearize prints the linear model about the angle as a scenario file, its stiffness, holding torque and operating range', async () => {
+    const elbow = {
+      ...scenario,
+      joint: { inertia: 0.2, damping: 0.5, stiffness: 0 },
+      controller: { mode: 'pid', kp: 40, kd: 3, derivativeOn: 'measurement' },
+      inputs: [{ channel: 'reference', shape: 'step', amplitude: 0.05, delay: 0.1 }],
+      nonlinear: { gravity: { mass: 2, arm: 0.3 } },
+    };
+    const m = memoryIo({ 'elbow.json': JSON.stringify(elbow) });
+    expect(await runCli(['linearize', 'elbow.json', '--angle', '60deg'], m.io)).toBe(0);
+    const doc = JSON.parse(m.out());
+    expect(Object.keys(doc)).toEqual(['scenario', 'operatingAngle', 'holding', 'effectiveStiffness', 'holdingTorque', 'notes', 'range']);
+    expect(doc.operatingAngle).toBeCloseTo(Math.PI / 3, 15);
+    expect(doc.effectiveStiffness).toBeCloseTo(2 * 9.80665 * 0.3 * 0.5, 12);
+    expect(doc.range).toMatchObject({ tolerance: 0.01 });
+    expect(doc.range.largestMove).toBeGreaterThan(0);
+    // The printed scenario is a scenario file the other commands take.
+    const again = memoryIo({ 'linear.json': JSON.stringify(doc.scenario) });
+    expect(await runCli(['check', 'linear.json'], again.io)).toBe(0);
+    const flat = memoryIo(files);
+    expect(await runCli(['linearize', 'ok.json', '--angle', '0.5'], flat.io)).toBe(2);
+    expect(flat.err()).toContain('"nonlinear.gravity"');
+  });
+
   it.each([
+    [['linearize', 'ok.json'], '--angle'],
+    [['linearize', 'ok.json', '--angle', 'up'], '--angle'],
+    [['linearize', 'ok.json', '--angle', '1', '--holding', 'both'], '--holding'],
+    [['linearize', 'ok.json', '--angle', '1', '--tolerance', '5'], '--tolerance'],
+    [['linearize', 'ok.json', '--angle', '1', '--format', 'csv'], '--format'],
     [['time', 'ok.json', '--runs', '0'], '--runs'],
     [['time', 'ok.json', '--runs', '2.5'], '--runs'],
     [['time', 'ok.json', '--method', 'both'], '--method'],

@@ -1,5 +1,7 @@
 import { frequencyResponseOf } from '../../shared/frequency/frequency-response';
 import { defaultSweepAmplitude, defaultSweepChannel, sineSweepOfTwin } from '../../shared/frequency/twin-sine-sweep';
+import { linearizeAbout } from '../../shared/linearize/operating-point';
+import { operatingRange } from '../../shared/linearize/operating-range';
 import { parseScenarioText } from '../../shared/scenario/parse-scenario';
 import { describeFieldErrors, type FieldError } from '../../shared/validation/field-errors';
 import { twinScenarioErrors } from '../../shared/twin/twin-scenario-errors';
@@ -68,6 +70,18 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     if (missing < 0) return EXIT_OK;
     io.writeErr(`kinetwin: the twin has no figure at ${response.value.frequency[missing]} rad/s: ${measured!.reason[missing]}\n`);
     return EXIT_TWIN_STOPPED;
+  }
+  if (cmd.command === 'linearize') {
+    const pair = linearizeAbout(scenario.value, { angle: cmd.angle, holding: cmd.holding });
+    if (!pair.ok) return invalid(io, `cannot linearize ${cmd.file}`, pair.errors.map((e) => (e.field === 'angle' || e.field === 'holding' ? { ...e, field: `--${e.field}` } : e)), false);
+    const twinErrors = twinScenarioErrors(pair.value.nonlinear);
+    if (twinErrors.length > 0) return invalid(io, `the twin cannot run ${cmd.file}`, twinErrors, false);
+    const range = pair.value.moves.length > 0 ? operatingRange(pair.value, { tolerance: cmd.tolerance }) : null;
+    if (range && !range.ok) return invalid(io, `cannot compare the linear model of ${cmd.file} with the twin`, range.errors, false);
+    const { linear, effectiveStiffness, holdingTorque, notes } = pair.value;
+    const doc = { scenario: linear, operatingAngle: cmd.angle, holding: cmd.holding, effectiveStiffness, holdingTorque, notes, range: range ? { tolerance: cmd.tolerance, ...range.value } : null };
+    await io.writeOut(`${JSON.stringify(doc, null, 2)}\n`);
+    return EXIT_OK;
   }
   if (cmd.command === 'time') {
     const grid = checkGridSize(cmd.dt, scenario.value.horizon);
