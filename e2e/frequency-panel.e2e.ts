@@ -80,7 +80,14 @@ describe('frequency panel in Chromium', () => {
     const drawn = await page.locator(`${PANEL} [data-test=bode-chart] .scatterlayer path.js-line`).evaluateAll((paths) => paths.filter((p) => (p.getAttribute('d') ?? '').length > 20).length);
     expect(drawn).toBe(6);
     expect(await page.locator(`${PANEL} [data-test=bode-chart] .legendtext`).allTextContents()).toEqual(['loop L(jω)', 'reference → angle', 'torque → angle', 'gain crossover']);
+    // Hovering at the gain crossover gives a read-out (of the marker or the loop line through it,
+    // whichever Plotly finds closest). Plotly's drag layer lies over the marker and takes the
+    // pointer, so the hover skips Playwright's hit test.
+    await page.locator(`${PANEL} [data-test=bode-chart] .scatterlayer .point`).first().hover({ force: true });
+    const hoverText = async () => (await page.locator(`${PANEL} [data-test=bode-chart] .hoverlayer .hovertext`).allTextContents()).join(' ');
+    await expect.poll(hoverText).toMatch(/ω = [0-9.]+ rad\/s/);
     await page.locator(PANEL).screenshot({ path: `${ARTIFACTS}/frequency-panel-wrist.png` });
+    await page.mouse.move(0, 0);
     await page.screenshot({ path: `${ARTIFACTS}/frequency-panel-bench.png`, fullPage: true });
 
     // Less derivative gain: less phase lead at the crossover, so a smaller phase margin.
