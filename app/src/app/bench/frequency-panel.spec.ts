@@ -132,6 +132,21 @@ describe('FrequencyPanel', () => {
     expect(chart().received).toHaveLength(1);
   });
 
+  it("gives a sampled controller's delay model and the Nyquist note", async () => {
+    const sampled = parseScenario({
+      kind: 'kinetwin/scenario',
+      version: 1,
+      name: 'Demo sampled wrist',
+      joint: { inertia: 0.012, damping: 0.04, stiffness: 0 },
+      controller: { mode: 'pid', kp: 6, ki: 1, kd: 0.4, derivativeOn: 'measurement', samplePeriod: 0.001 },
+      horizon: 2,
+    });
+    fixture.componentRef.setInput('draft', sampled);
+    await untilReceived(1);
+    expect(text('[data-test=delay-model]')).toBe(`Delay model: ${expected(sampled).delayModel}.`);
+    expect(text('[data-test=frequency-notes]')).toContain('stability decided by the Nyquist criterion');
+  });
+
   it('says why an open-loop scenario has no margins and no loop or reference trace', async () => {
     fixture.componentRef.setInput('draft', draft(0, 'open-loop'));
     await untilReceived(1);
