@@ -7,6 +7,8 @@ import { provideRouter } from '@angular/router';
 import { responseAt, solveClosedForm } from '@kinetwin/shared/closed-form/index';
 import type { ScenarioDetail } from '@kinetwin/shared/protocol/api-types';
 import type { RunControlState, RunFrame, RunSample } from '@kinetwin/shared/protocol/run-events';
+import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
+import type { Parsed } from '@kinetwin/shared/validation/field-errors';
 import { RUN_SOCKET_FACTORY, type RunSocketClient } from '../core/run-socket-factory';
 import { FakeRunSocketClient } from '../core/testing/fake-run-socket-client';
 import { AngleChart } from './angle-chart';
@@ -14,6 +16,7 @@ import { Bench, CLOSED_FORM_DEBOUNCE_MS } from './bench';
 import type { ChartFeed } from './chart-feed';
 import { joinBatches } from './chart-feed';
 import { CLOSED_FORM_TRACE_INTERVALS, type ClosedFormTrace } from './closed-form-view';
+import { FrequencyPanel } from './frequency-panel';
 
 /** Takes the chart's place: Plotly does not run under jsdom, and what the bench feeds it is the point. */
 @Component({ selector: 'kt-angle-chart', template: '' })
@@ -21,6 +24,12 @@ class RecordingChart {
   readonly horizon = input.required<number>();
   readonly feed = input.required<ChartFeed>();
   readonly closedForm = input<ClosedFormTrace | null>(null);
+}
+
+/** Takes the frequency panel's place (its chart needs Plotly): what the bench hands it is the point. */
+@Component({ selector: 'kt-frequency-panel', template: '' })
+class RecordingFrequencyPanel {
+  readonly draft = input.required<Parsed<Scenario> | null>();
 }
 
 // Invented demo values.
@@ -96,7 +105,7 @@ describe('Bench', () => {
       // The 3D view needs WebGL, which jsdom lacks; its placeholder stands in.
       deferBlockBehavior: DeferBlockBehavior.Manual,
     });
-    TestBed.overrideComponent(Bench, { remove: { imports: [AngleChart] }, add: { imports: [RecordingChart] } });
+    TestBed.overrideComponent(Bench, { remove: { imports: [AngleChart, FrequencyPanel] }, add: { imports: [RecordingChart, RecordingFrequencyPanel] } });
     await TestBed.compileComponents();
     http = TestBed.inject(HttpTestingController);
     fixture = TestBed.createComponent(Bench);
@@ -185,6 +194,20 @@ describe('Bench', () => {
     // Type 1 loop (no spring, integrating joint): the 0.5 rad step settles at 0.5 rad.
     expect(text('[data-test=final-value]')).toBe('0.5 rad');
     expect(page.querySelector('[data-test=closed-form-panel] [data-test=metrics]')).not.toBeNull();
+  });
+
+  it('hands the frequency panel the edited draft, errors included', async () => {
+    const frequencyDraft = () => (fixture.debugElement.query(By.directive(RecordingFrequencyPanel)).componentInstance as RecordingFrequencyPanel).draft();
+    http.expectOne('/api/scenarios/5').flush(detail);
+    await fixture.whenStable();
+    expect(frequencyDraft()).toEqual({ ok: true, value: detail.scenario });
+
+    await type('controller.kd', '0.25');
+    const edited = frequencyDraft();
+    expect(edited?.ok && edited.value.controller.kd).toBe(0.25);
+
+    await type('joint.inertia', '-1');
+    expect(frequencyDraft()).toMatchObject({ ok: false, errors: [{ field: 'joint.inertia' }] });
   });
 
   it('runs the edited scenario inline and the stored one by id', async () => {
