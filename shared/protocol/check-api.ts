@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { MAX_FREQUENCY, MIN_FREQUENCY } from '../frequency/frequency-grid';
 import { scenarioSchema } from '../scenario/scenario-schema';
 
 // The checks API (POST /api/checks): the bench sends its current draft scenario, a worker thread
@@ -76,5 +77,72 @@ export interface CheckResponse {
   linearRange: LinearRangeBody;
   twinVsClosedForm: ClosedFormResidualBody;
   /** Wall time the checks took in the worker thread, ms (waiting for a free worker not included). */
+  elapsedMs: number;
+}
+
+/** Most frequencies one measured sweep may hold over the API: each is a full twin run. */
+export const MAX_SWEEP_POINTS_API = 40;
+
+const frequencyBound = (what: string) =>
+  z
+    .number({ error: `${what} must be a number of rad/s` })
+    .min(MIN_FREQUENCY, { error: `${what} must be at least ${MIN_FREQUENCY} rad/s` })
+    .max(MAX_FREQUENCY, { error: `${what} must be at most ${MAX_FREQUENCY} rad/s` });
+
+/** POST /api/checks/sine-sweep body: measure the twin's frequency response by injected sines. */
+export const sineSweepRequestSchema = z
+  .strictObject({
+    scenario: scenarioSchema,
+    /** Log-spaced frequencies, rad/s, both ends included. */
+    from: frequencyBound('from'),
+    to: frequencyBound('to'),
+    points: z.int({ error: 'points must be a whole number' }).min(1, { error: 'points must be at least 1' }).max(MAX_SWEEP_POINTS_API, { error: `points must be at most ${MAX_SWEEP_POINTS_API}: each is a full twin run` }),
+    /** Default: the reference in closed loop, the torque in open loop. */
+    channel: z.enum(['reference', 'torque'], { error: 'channel must be "reference" or "torque"' }).optional(),
+    /** Default: the largest amplitude of the scenario's own terms on the channel, else 1. */
+    amplitude: z.number({ error: 'amplitude must be a number' }).positive({ error: 'amplitude must be positive' }).max(1e9, { error: 'amplitude must be at most 1e9' }).optional(),
+  })
+  .refine((b) => (b.points === 1 ? b.to >= b.from : b.to > b.from), { path: ['to'], error: 'to must be above from (one point is measured at from)' });
+export type SineSweepRequest = z.input<typeof sineSweepRequestSchema>;
+
+/** One measured frequency as the API sends it (MeasuredPoint of shared/frequency, field for field). */
+export interface MeasuredPointBody {
+  frequency: number;
+  magnitudeDb: number | null;
+  phaseDeg: number | null;
+  distortion: number | null;
+  saturated: boolean;
+  stuck: boolean;
+  reason: string | null;
+}
+
+/** POST /api/checks/sine-sweep answer (200). */
+export interface SineSweepResponse {
+  channel: 'reference' | 'torque';
+  amplitude: number;
+  points: MeasuredPointBody[];
+  elapsedMs: number;
+}
+
+/** POST /api/checks/operating-range body: linearize about an angle and find how far that holds. */
+export const operatingRangeRequestSchema = z.strictObject({
+  scenario: scenarioSchema,
+  /** θ0, rad. */
+  angle: z.number({ error: 'angle must be a number of rad' }),
+  holding: z.enum(['feed-forward', 'disturbance'], { error: 'holding must be "feed-forward" or "disturbance"' }).default('feed-forward'),
+  /** Agreement as a fraction of the peak, e.g. 0.01. */
+  tolerance: z.number({ error: 'tolerance must be a number' }).gt(0, { error: 'tolerance must be above 0' }).lt(1, { error: 'tolerance must be below 1 (0.01 is 1 %)' }).default(0.01),
+});
+export type OperatingRangeRequest = z.input<typeof operatingRangeRequestSchema>;
+
+/** POST /api/checks/operating-range answer (200): the linear model and how far it holds. */
+export interface OperatingRangeResponse {
+  /** The linear model about θ0 as a scenario document (angles from θ0). */
+  linear: unknown;
+  effectiveStiffness: number;
+  holdingTorque: number;
+  notes: string[];
+  /** Null when the scenario has no inputs to grow. */
+  range: { tolerance: number; scale: number | null; smallestScale: number | null; largestMove: number | null; checks: number; summary: string } | null;
   elapsedMs: number;
 }

@@ -68,6 +68,8 @@ function callsFor(member: TestMember, f: Fixture): Record<string, Call> {
     'get /api/team/activity': { path: '/api/team/activity' },
     'get /api/dev/mailbox': { path: '/api/dev/mailbox' },
     'post /api/checks': { path: '/api/checks', body: { scenario: demoScenarioDocument() } },
+    'post /api/checks/sine-sweep': { path: '/api/checks/sine-sweep', body: { scenario: demoScenarioDocument(), from: 1, to: 10, points: 2 } },
+    'post /api/checks/operating-range': { path: '/api/checks/operating-range', body: { scenario: { ...demoScenarioDocument(), nonlinear: { gravity: { mass: 1, arm: 0.2 } } }, angle: 0.5 } },
   };
 }
 

@@ -1,6 +1,5 @@
 import { Piscina } from 'piscina';
-import type { CheckResponse } from '../../shared/protocol/check-api';
-import type { Scenario } from '../../shared/scenario/scenario-schema';
+import type { BatchKind, BatchResults, BatchTask } from './batch-task';
 import { AppError } from '../http/app-error';
 import type { Logger } from '../logging/logger';
 
@@ -29,11 +28,12 @@ export interface CheckPoolOptions {
 /** The worker threads that run the checks, off the event loop. */
 export interface CheckPool {
   /**
-   * Runs every check of a parsed scenario in a worker thread. Rejects with an AppError: 503 when
-   * the queue is full or the server is closing, 504 past the time limit (the worker is stopped),
-   * 500 when the worker failed (logged), 499 when `cancel` aborted (the client went away).
+   * Runs one batch task (the checks of a scenario, a measured sweep, an operating range) in a
+   * worker thread. Rejects with an AppError: 503 when the queue is full or the server is
+   * closing, 504 past the time limit (the worker is stopped), 500 when the worker failed
+   * (logged), 499 when `cancel` aborted (the client went away).
    */
-  run(scenario: Scenario, cancel?: AbortSignal): Promise<CheckResponse>;
+  run<K extends BatchKind>(task: Extract<BatchTask, { kind: K }>, cancel?: AbortSignal): Promise<BatchResults[K]>;
   /** Jobs accepted and not yet answered: running plus waiting. */
   pending(): number;
   /** Worker threads alive now. */
@@ -55,12 +55,12 @@ export function workerExecArgv(parentExecArgv: readonly string[]): string[] {
 /** The pool; its threads start with the first job, so a server that runs no checks holds none. */
 export function createCheckPool(options: CheckPoolOptions): CheckPool {
   const { workers, queueSize, timeLimitMs, logger, workerFile = CHECK_WORKER_FILE } = options;
-  let piscina: Piscina<Scenario, CheckResponse> | null = null;
+  let piscina: Piscina<BatchTask, BatchResults[BatchKind]> | null = null;
   let pending = 0;
   let closing = false;
 
   const open = () =>
-    (piscina ??= new Piscina<Scenario, CheckResponse>({
+    (piscina ??= new Piscina<BatchTask, BatchResults[BatchKind]>({
       filename: workerFile,
       minThreads: 0,
       maxThreads: workers,
@@ -72,7 +72,7 @@ export function createCheckPool(options: CheckPoolOptions): CheckPool {
     }));
 
   return {
-    async run(scenario, cancel) {
+    async run<K extends BatchKind>(task: Extract<BatchTask, { kind: K }>, cancel?: AbortSignal): Promise<BatchResults[K]> {
       if (closing) throw new AppError(503, 'shutting_down', 'The server is shutting down; run the checks again once it is back.');
       if (pending >= workers + queueSize) {
         throw busy(workers, queueSize);
@@ -81,7 +81,7 @@ export function createCheckPool(options: CheckPoolOptions): CheckPool {
       const timeout = AbortSignal.timeout(timeLimitMs);
       const signal = cancel ? AbortSignal.any([timeout, cancel]) : timeout;
       try {
-        return await open().run(scenario, { signal });
+        return (await open().run(task, { signal })) as BatchResults[K];
       } catch (err) {
         if (timeout.aborted) {
           throw new AppError(

@@ -1,11 +1,10 @@
-import type { CheckResponse } from '../../shared/protocol/check-api';
-import type { Scenario } from '../../shared/scenario/scenario-schema';
-import { runChecks } from './run-checks';
+import { runBatchTask, type BatchKind, type BatchResults, type BatchTask } from './batch-task';
 
 /**
- * The worker thread's task (piscina calls the default export): every check of one scenario the
- * route has already parsed, answered as plain, structured-clonable data.
+ * The worker thread's task (piscina calls the default export): one batch task the route has
+ * already parsed — the checks, a measured sweep, an operating range — answered as plain,
+ * structured-clonable data.
  */
-export default function checkScenario(scenario: Scenario): CheckResponse {
-  return runChecks(scenario);
+export default function runTask(task: BatchTask): BatchResults[BatchKind] {
+  return runBatchTask(task);
 }

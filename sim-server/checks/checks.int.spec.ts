@@ -203,7 +203,7 @@ describe('the check pool when its worker fails', () => {
     if (!parsed.ok) throw new Error('demo scenario invalid');
     try {
       for (let i = 0; i < 2; i++) {
-        const failure = await failing.run(parsed.value).then(
+        const failure = await failing.run({ kind: 'checks', scenario: parsed.value }).then(
           () => null,
           (err: unknown) => err,
         );
@@ -217,6 +217,6 @@ describe('the check pool when its worker fails', () => {
       await failing.close();
     }
     expect(failing.threads()).toBe(0);
-    await expect(failing.run(parsed.value)).rejects.toMatchObject({ status: 503, code: 'shutting_down' });
+    await expect(failing.run({ kind: 'checks', scenario: parsed.value })).rejects.toMatchObject({ status: 503, code: 'shutting_down' });
   });
 });
