@@ -56,7 +56,7 @@ describe('the pool\'s other batch work: the measured sweep and the operating ran
     const res = await team.members.engineer.api.post('/api/checks/operating-range', { scenario, angle: Math.PI / 3, tolerance: 0.01 });
     expect(res.status).toBe(200);
     const body = (await readJson(res)) as OperatingRangeResponse;
-    const k = (scenario as { joint: { stiffness: number } }).joint.stiffness;
+    const k = (scenario as unknown as { joint: { stiffness: number } }).joint.stiffness;
     expect(body.effectiveStiffness).toBeCloseTo(k + mass * g * arm * 0.5, 10);
     expect(parseScenario(body.linear).ok).toBe(true);
     expect(body.range?.summary).toMatch(/the linear model agrees with the twin within 1 % of the peak/);
