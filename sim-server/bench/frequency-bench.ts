@@ -2,9 +2,13 @@ import { DEFAULT_FREQUENCY_GRID, logFrequencies } from '../../shared/frequency/f
 import { frequencyResponseOf } from '../../shared/frequency/frequency-response';
 import { sineSweepOfTwin } from '../../shared/frequency/twin-sine-sweep';
 import { parseScenario } from '../../shared/scenario/parse-scenario';
+import { performance } from 'node:perf_hooks';
 import { type BenchResult } from './bench-result';
 import { median, timeRuns } from './bench-timing';
 import { BENCH_SCENARIO } from './closed-form-bench';
+import { createCheckPool } from '../checks/check-pool';
+import { sweepOnPool } from '../checks/parallel-sweep';
+import { createLogger } from '../logging/logger';
 
 const WARM_UP_RUNS = 50;
 const TIMED_RUNS = 500;
@@ -37,6 +41,7 @@ export async function benchFrequency(): Promise<BenchResult[]> {
     results.push({ name: `frequency response: ${DEFAULT_FREQUENCY_GRID.points} points with margins, ${label}`, median: median(times), unit: 'ms', runs: TIMED_RUNS, goal: '< 2 ms' });
   }
   results.push(benchSineSweep());
+  results.push(await benchSineSweepOnPool());
   return results;
 }
 
@@ -61,4 +66,28 @@ function benchSineSweep(): BenchResult {
     SWEEP_RUNS,
   );
   return { name: 'twin sine sweep: 20 frequencies 1–1000 rad/s, one thread', median: median(times), unit: 'ms', runs: SWEEP_RUNS, goal: '< 2 s on both cores' };
+}
+
+/**
+ * The same 20-frequency sweep as the server answers it: dealt over a pool of two worker threads
+ * (the route's sweepOnPool), threads started and warmed by one untimed sweep first.
+ */
+async function benchSineSweepOnPool(): Promise<BenchResult> {
+  const parsed = parseScenario(BENCH_SCENARIO);
+  if (!parsed.ok) throw new Error('sweep bench scenario is invalid');
+  const pool = createCheckPool({ workers: 2, queueSize: 8, timeLimitMs: 120_000, logger: createLogger('silent') });
+  const request = { scenario: parsed.value, from: 1, to: 1000, points: 20, channel: 'reference' as const, amplitude: 0.1 };
+  try {
+    await sweepOnPool(pool, request);
+    const times: number[] = [];
+    for (let i = 0; i < SWEEP_RUNS; i++) {
+      const t0 = performance.now();
+      const r = await sweepOnPool(pool, request);
+      times.push(performance.now() - t0);
+      if ('errors' in r || r.points.some((p) => p.reason !== null)) throw new Error('pool sweep bench: a frequency was not measured');
+    }
+    return { name: 'twin sine sweep: the same on the server pool, two worker threads', median: median(times), unit: 'ms', runs: SWEEP_RUNS, goal: '< 2 s on both cores' };
+  } finally {
+    await pool.close();
+  }
 }

@@ -1,6 +1,5 @@
 import { performance } from 'node:perf_hooks';
-import { logFrequencies } from '../../shared/frequency/frequency-grid';
-import { defaultSweepAmplitude, defaultSweepChannel, sineSweepOfTwin } from '../../shared/frequency/twin-sine-sweep';
+import { sineSweepOfTwin } from '../../shared/frequency/twin-sine-sweep';
 import { linearizeAbout, type HoldingMode } from '../../shared/linearize/operating-point';
 import { operatingRange } from '../../shared/linearize/operating-range';
 import type { CheckResponse, OperatingRangeResponse, SineSweepResponse } from '../../shared/protocol/check-api';
@@ -15,7 +14,7 @@ import { runChecks } from './run-checks';
  */
 export type BatchTask =
   | { kind: 'checks'; scenario: Scenario }
-  | { kind: 'sine-sweep'; scenario: Scenario; from: number; to: number; points: number; channel?: 'reference' | 'torque'; amplitude?: number }
+  | { kind: 'sine-sweep'; scenario: Scenario; frequencies: number[]; channel: 'reference' | 'torque'; amplitude: number }
   | { kind: 'operating-range'; scenario: Scenario; angle: number; holding: HoldingMode; tolerance: number };
 
 export type BatchKind = BatchTask['kind'];
@@ -31,11 +30,7 @@ const elapsed = (started: number) => Math.round((performance.now() - started) * 
 
 function sineSweep(task: Extract<BatchTask, { kind: 'sine-sweep' }>): BatchResults['sine-sweep'] {
   const started = performance.now();
-  const grid = task.points === 1 ? ({ ok: true, value: [task.from] } as const) : logFrequencies({ from: task.from, to: task.to, points: task.points });
-  if (!grid.ok) return { errors: grid.errors };
-  const channel = task.channel ?? defaultSweepChannel(task.scenario);
-  const amplitude = task.amplitude ?? defaultSweepAmplitude(task.scenario, channel);
-  const sweep = sineSweepOfTwin(task.scenario, { frequencies: grid.value, channel, amplitude });
+  const sweep = sineSweepOfTwin(task.scenario, { frequencies: task.frequencies, channel: task.channel, amplitude: task.amplitude });
   if (!sweep.ok) return { errors: sweep.errors };
   return { ...sweep.value, elapsedMs: elapsed(started) };
 }

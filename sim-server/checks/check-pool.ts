@@ -34,6 +34,8 @@ export interface CheckPool {
    * (logged), 499 when `cancel` aborted (the client went away).
    */
   run<K extends BatchKind>(task: Extract<BatchTask, { kind: K }>, cancel?: AbortSignal): Promise<BatchResults[K]>;
+  /** Worker threads the pool may run at once. */
+  readonly workers: number;
   /** Jobs accepted and not yet answered: running plus waiting. */
   pending(): number;
   /** Worker threads alive now. */
@@ -100,6 +102,7 @@ export function createCheckPool(options: CheckPoolOptions): CheckPool {
         pending--;
       }
     },
+    workers,
     pending: () => pending,
     threads: () => piscina?.threads.length ?? 0,
     async close() {

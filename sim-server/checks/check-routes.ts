@@ -10,6 +10,7 @@ import type { GuardedRouter } from '../auth/route-table';
 import { bodyOf } from '../library/request-input';
 import { CHECK_RATE_LIMIT, CHECK_RATE_WINDOW_MS } from './check-limits';
 import type { CheckPool } from './check-pool';
+import { sweepOnPool } from './parallel-sweep';
 
 /** Said when a draft fails validation; the field errors follow it. */
 export const INVALID_CHECK_REQUEST = 'The scenario cannot be checked; no checks were run.';
@@ -43,11 +44,11 @@ export function checkRoutes({ route }: GuardedRouter, { pool }: { pool: CheckPoo
     res.json(answer);
   });
 
-  // The twin's measured frequency response: one twin run per frequency, in a worker thread.
+  // The twin's measured frequency response: one twin run per frequency, spread over the pool's threads.
   route('post', '/sine-sweep', 'bench.check', limiter, async (req, res) => {
     const body = bodyOf(req, sineSweepRequestSchema, INVALID_SWEEP_REQUEST);
     refuseWhatTheTwinRefuses(body.scenario, INVALID_SWEEP_REQUEST);
-    res.json(answerOrRefuse(await pool.run({ kind: 'sine-sweep', ...body }, stopWhenGone(res)), INVALID_SWEEP_REQUEST));
+    res.json(answerOrRefuse(await sweepOnPool(pool, body, stopWhenGone(res)), INVALID_SWEEP_REQUEST));
   });
 
   // The linear model about an operating angle and the largest move it describes.
