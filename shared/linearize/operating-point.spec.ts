@@ -41,6 +41,21 @@ describe('linearizing a gravity-loaded joint about an operating angle', () => {
     expect(linearized().effectiveStiffness).toBeCloseTo(0.8 - slope, 7);
   });
 
+  it("agrees with a central finite difference of the twin's own acceleration about θ0 (the twin run itself, open loop, from θ0 ± h at rest)", () => {
+    const p = linearized();
+    const J = p.nonlinear.joint.inertia;
+    // Open loop, holding terms only: the acceleration at rest is the net torque over J.
+    const openLoop = { ...p.nonlinear, controller: { ...p.nonlinear.controller, mode: 'open-loop' as const }, inputs: p.nonlinear.inputs.slice(p.moves.length), horizon: 1e-3 };
+    const [h, t] = [1e-4, 1e-5];
+    const accelerationAt = (delta: number) => {
+      const run = simulateTwin({ ...openLoop, initial: { angle: delta, velocity: 0 } }, { dt: t });
+      // v(t) = a·t + O(t²) from rest.
+      return run.samples.velocity[1]! / t;
+    };
+    const slope = (accelerationAt(h) - accelerationAt(-h)) / (2 * h);
+    expect(-J * slope / p.effectiveStiffness).toBeCloseTo(1, 3);
+  });
+
   it('above horizontal the effective stiffness is negative: an unstable plant, said in the notes', () => {
     const p = linearized((2 * Math.PI) / 3 + 0.3);
     expect(p.effectiveStiffness).toBeLessThan(0);
