@@ -381,8 +381,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     if (stateSize > INTEGRAL) {
       const error = reference - state[ANGLE]!;
       // The regime is fixed over the stretch; it changes only at located events (continuous-pid.ts).
-      const sliding = windup.mode === 'sliding' ? slidingRate(state, t, error, rates[ANGLE]!, rates[VELOCITY]!) : 0;
-      rates[INTEGRAL] = integralRate(windup, error, sliding);
+      const mode = windup.mode;
+      rates[INTEGRAL] = mode === 'integrating' ? error : integralRate(windup, error, mode === 'sliding' ? slidingRate(state, t, error, rates[ANGLE]!, rates[VELOCITY]!) : 0);
       if (stateSize > FILTER) rates[FILTER] = ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
     }
     return rates;
@@ -396,9 +396,9 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
    * net torque has changed by a finite amount. Zeno-like hunting of a drive held at the
    * breakaway threshold is bounded by maxFrictionEvents and the work budget.
    */
-  const frictionEvent = (state: readonly number[], t: number): number => {
+  const frictionEvent = (state: readonly number[], t: number, drive = driveRequest(state, t)): number => {
     if (slip !== 0) return -slip * state[VELOCITY]!;
-    return Math.abs(netTorque(state, t, driveRequest(state, t))) - nl.staticFriction;
+    return Math.abs(netTorque(state, t, drive)) - nl.staticFriction;
   };
 
   const chooseFrictionRegime = () => {
@@ -411,12 +411,18 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   };
 
   /** The anti-windup event function at a state: positive once the integrator's regime no longer holds. */
-  const windupEvent = (state: readonly number[], t: number): number => {
-    const reference = stretch.reference(t);
-    const error = reference - state[ANGLE]!;
-    const requested = continuousRequest(state, t, reference);
+  const windupEvent = (state: readonly number[], t: number, error: number, requested: number): number => {
     const rate = windup.mode === 'sliding' ? slidingRateAt(state, t, error, windup.side) : 0;
     return integratorEvent(pidGains, windup, requested, error, rate);
+  };
+
+  /** Whether a regime must change at a state: the friction's or the integrator's (the request computed once for both). */
+  const regimeEnds = (state: readonly number[], t: number): boolean => {
+    if (!windupOn) return frictionEvent(state, t) > 0;
+    const error = stretch.reference(t) - state[ANGLE]!;
+    const requested = pidRequest(pidGains, error, state[INTEGRAL]!, derivativeOf(state, t, error));
+    if (frictionOn && frictionEvent(state, t, windup.mode === 'sliding' ? windup.side * limit : requested) > 0) return true;
+    return windupEvent(state, t, error, requested) > 0;
   };
 
   /** Puts the request exactly on the limit the integrator slides on (a restart removes the drift). */
@@ -443,7 +449,9 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
    * holds unless its event function says it ended there.
    */
   const reviewWindupRegime = (forced: boolean) => {
-    if (forced || windupEvent(y, time) > 0) chooseWindupRegime();
+    if (forced) return chooseWindupRegime();
+    const error = stretch.reference(time) - y[ANGLE]!;
+    if (windupEvent(y, time, error, continuousRequest(y, time)) > 0) chooseWindupRegime();
   };
 
   const applyJumpsAt = (t: number, terms: ForcingTerms) => {
@@ -615,8 +623,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
           const g = (t: number) => {
             evaluations++;
             for (let c = 0; c < stateSize; c++) eventState[c] = dense(c, t);
-            if (frictionOn && frictionEvent(eventState, t) > 0) return 1;
-            return windupOn && windupEvent(eventState, t) > 0 ? 1 : -1;
+            return regimeEnds(eventState, t) ? 1 : -1;
           };
           // Scan the step at output spacing (at least 4 pieces, at most MAX_EVENT_SCAN): a long
           // step can carry the velocity through zero and back, which its end alone would not show.
