@@ -143,7 +143,7 @@ export interface EffectOnset {
   description: string;
 }
 
-/** Regime switches a run has made, located as events (README, "Regimes"). */
+/** Regime switches a run has made, each at a located event (README: the twin's friction and `antiWindup` text). */
 export interface TwinSwitches {
   /** Stick/slip switches of the friction. */
   friction: number;
