@@ -51,6 +51,23 @@ describe('forcing terms', () => {
     expect(stretch.torqueConstant).toBe(false);
   });
 
+  it('gives r″ of every smooth reference shape, the derivative of its rate', () => {
+    const terms = termsOf([
+      { channel: 'reference', shape: 'ramp', amplitude: 2, delay: 0.2 },
+      { channel: 'reference', shape: 'sine', amplitude: 0.5, delay: 0.2, frequency: 3 },
+      { channel: 'reference', shape: 'cosine', amplitude: 0.3, delay: 0.1, frequency: 5 },
+      { channel: 'reference', shape: 'decay', amplitude: 1.5, delay: 0.1, rate: 4 },
+      { channel: 'reference', shape: 'step', amplitude: 1, delay: 0.1 },
+    ]);
+    const stretch = terms.stretchFrom(0.2, EPS);
+    const exact = -0.5 * 9 * Math.sin(3 * 0.5) - 0.3 * 25 * Math.cos(5 * 0.6) + 1.5 * 16 * Math.exp(-4 * 0.6);
+    expect(stretch.referenceAcceleration(0.7)).toBeCloseTo(exact, 12);
+    // Central difference of the rate (common practice): error O(h²).
+    const h = 1e-5;
+    expect(stretch.referenceAcceleration(0.7)).toBeCloseTo((stretch.referenceRate(0.7 + h) - stretch.referenceRate(0.7 - h)) / (2 * h), 5);
+    expect(termsOf([{ channel: 'reference', shape: 'step', amplitude: 1, delay: 0 }]).stretchFrom(0, EPS).referenceAcceleration(0.5)).toBe(0);
+  });
+
   it('reports the jumps at an edge: reference steps and pulse edges, torque impulses', () => {
     const terms = termsOf([
       { channel: 'reference', shape: 'step', amplitude: 0.5, delay: 0.1 },

@@ -12,6 +12,8 @@ export interface ForcingStretch {
   reference(t: number): number;
   /** dr/dt, rad/s. */
   referenceRate(t: number): number;
+  /** d²r/dt², rad/s² (the sliding integrator of an unfiltered derivative on error needs it). */
+  referenceAcceleration(t: number): number;
   /** External torque τ(t) at the joint without impulses, N·m. */
   torque(t: number): number;
   /** True when the torque channel is constant over the stretch (steps and pulses only). */
@@ -75,6 +77,24 @@ function shapeRate(term: InputTerm, s: number): number {
   }
 }
 
+/** Second time derivative of an acting term `s` seconds after its start. */
+function shapeAcceleration(term: InputTerm, s: number): number {
+  const a = term.amplitude;
+  switch (term.shape) {
+    case 'impulse':
+    case 'step':
+    case 'pulse':
+    case 'ramp':
+      return 0;
+    case 'sine':
+      return -a * term.frequency! ** 2 * Math.sin(term.frequency! * s);
+    case 'cosine':
+      return -a * term.frequency! ** 2 * Math.cos(term.frequency! * s);
+    case 'decay':
+      return a * term.rate! ** 2 * Math.exp(-term.rate! * s);
+  }
+}
+
 /** Jump of one term's value at time t (0 when t is not one of its edges). */
 function termJumpAt(term: InputTerm, t: number): number {
   const a = term.amplitude;
@@ -101,6 +121,7 @@ function actsFrom(term: InputTerm, start: number, eps: number): boolean {
 interface ChannelStretch {
   value: (t: number) => number;
   rate: (t: number) => number;
+  acceleration: (t: number) => number;
   constant: boolean;
 }
 
@@ -112,7 +133,7 @@ function channelStretch(terms: readonly InputTerm[]): ChannelStretch {
     if (term.shape === 'step' || term.shape === 'pulse') constant += term.amplitude;
     else if (term.shape !== 'impulse') varying.push(term);
   }
-  if (varying.length === 0) return { value: () => constant, rate: () => 0, constant: true };
+  if (varying.length === 0) return { value: () => constant, rate: () => 0, acceleration: () => 0, constant: true };
   return {
     value: (t) => {
       let total = constant;
@@ -122,6 +143,11 @@ function channelStretch(terms: readonly InputTerm[]): ChannelStretch {
     rate: (t) => {
       let total = 0;
       for (let i = 0; i < varying.length; i++) total += shapeRate(varying[i]!, t - varying[i]!.delay);
+      return total;
+    },
+    acceleration: (t) => {
+      let total = 0;
+      for (let i = 0; i < varying.length; i++) total += shapeAcceleration(varying[i]!, t - varying[i]!.delay);
       return total;
     },
     constant: false,
@@ -155,7 +181,13 @@ export function forcingTermsOf(scenario: Scenario): ForcingTerms {
       const acting = inputs.filter((term) => actsFrom(term, start, eps));
       const reference = channelStretch(acting.filter((term) => term.channel === 'reference'));
       const torque = channelStretch(acting.filter((term) => term.channel === 'torque'));
-      return { reference: reference.value, referenceRate: reference.rate, torque: torque.value, torqueConstant: torque.constant };
+      return {
+        reference: reference.value,
+        referenceRate: reference.rate,
+        referenceAcceleration: reference.acceleration,
+        torque: torque.value,
+        torqueConstant: torque.constant,
+      };
     },
   };
 }

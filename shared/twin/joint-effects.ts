@@ -7,6 +7,10 @@
  * Drive torque that reaches the joint: the request is clamped to ±limit (motor saturation), then
  * the dead band ±deadBand is taken out of it (torque lost in the transmission before it moves
  * the joint). With limit = Infinity and deadBand = 0 the request passes unchanged.
+ * Why its edges (±limit, ±deadBand) cannot chatter: the map is continuous and piecewise linear in
+ * the request, so the right-hand side stays continuous across them and odex steps over a kink
+ * under its error control with no regime to switch. Only the anti-windup rule switches there,
+ * and that is a regime of its own (continuous-pid.ts).
  * @param requested N·m at the joint
  * @param limit N·m, Infinity when off
  * @param deadBand N·m, ≥ 0

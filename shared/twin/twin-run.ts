@@ -2,6 +2,19 @@ import { Outcome, Solver } from 'odex';
 import { resolveNonlinear } from '../scenario/nonlinear-schema';
 import { inputTermSchema, MAX_INPUT_TERMS, type InputTerm, type Scenario } from '../scenario/scenario-schema';
 import { describeFieldErrors, parseWith, type Parsed } from '../validation/field-errors';
+import {
+  chooseIntegratorRegime,
+  frozenRequestRate,
+  hasWindupRegimes,
+  integralOnLimit,
+  integralRate,
+  integratorEvent,
+  onLimit,
+  pidRequest,
+  slidingIntegralRate,
+  type ContinuousPidGains,
+  type IntegratorRegime,
+} from './continuous-pid';
 import { firstPositive } from './event-bisection';
 import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcing-terms';
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
@@ -99,7 +112,10 @@ export interface TwinTrace extends TwinSamples {
    * channel of a closed loop act on the joint directly and are not in here.
    */
   appliedTorque: Float64Array;
-  /** 1 where the drive request exceeds the torque limit. */
+  /**
+   * 1 where the drive request exceeds the torque limit, or holds on it while the anti-windup
+   * integrator slides there (continuous-pid.ts).
+   */
   saturating: Uint8Array;
   /** 1 where static friction holds the joint still. */
   sticking: Uint8Array;
@@ -127,6 +143,14 @@ export interface EffectOnset {
   description: string;
 }
 
+/** Regime switches a run has made, each at a located event (README: the twin's friction and `antiWindup` text). */
+export interface TwinSwitches {
+  /** Stick/slip switches of the friction. */
+  friction: number;
+  /** Anti-windup integrator switches between integrating, frozen and sliding on the limit. */
+  integrator: number;
+}
+
 /** A forcing term to add while a run is live; `delay` defaults to the run's current time. */
 export type KickTerm = Omit<InputTerm, 'delay'> & { delay?: number };
 
@@ -146,6 +170,8 @@ export interface TwinRun {
   readonly effects: readonly EffectOnset[];
   /** Work spent so far against the run's work budget. */
   readonly work: TwinWork;
+  /** Regime switches so far. */
+  readonly switches: TwinSwitches;
   /**
    * Integrates up to `until` (clamped to the horizon) and returns the new grid samples. With
    * `limits`, returns early at an integrator step boundary once the deadline has passed (after
@@ -168,7 +194,7 @@ export interface TwinRun {
  */
 export const EXTRAPOLATION_COLUMNS = 6;
 
-/** Most points at which one integrator step is scanned for a friction event. */
+/** Most points at which one integrator step is scanned for a regime event. */
 const MAX_EVENT_SCAN = 1000;
 
 const ANGLE = 0;
@@ -178,7 +204,7 @@ const FILTER = 3;
 
 /**
  * Starts a twin run of the joint, its controller and the effects of its `nonlinear` block.
- * Integration restarts at every input discontinuity, controller sample and friction event, so
+ * Integration restarts at every input discontinuity, controller sample and regime event, so
  * odex never steps across one; impulses and derivative kicks are applied as jumps of the velocity.
  * Throws a RangeError when the scenario fails twinScenarioErrors (parse with parseTwinScenario).
  * @example const run = createTwinRun(scenario); const s = run.advance(run.horizon);
@@ -250,6 +276,22 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     antiWindup: nl.antiWindup,
   };
   const pid = initialSampledPidState();
+  // Continuous controller: its anti-windup regime, switched only at located events (continuous-pid.ts).
+  const pidGains: ContinuousPidGains = {
+    kp,
+    ki,
+    kd,
+    derivativeFilter: tf,
+    derivativeOnError: onError,
+    gearRatio: n,
+    torqueLimit: limit,
+    antiWindup: nl.antiWindup,
+  };
+  const windupOn = continuousLoop && hasWindupRegimes(pidGains);
+  let windup: IntegratorRegime = { mode: 'integrating', side: 1 };
+  let windupSwitches = 0;
+  /** Regime events are looked for on the dense output: stick/slip, and the anti-windup regime. */
+  const eventsOn = frictionOn || windupOn;
   const noise = gaussianSource(nl.noiseSeed);
   let nextSample = 0;
   let heldRequest = 0;
@@ -260,12 +302,15 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     if (Number.isNaN(onsets[effect]!)) onsets[effect] = t;
   };
 
+  /** The continuous controller's D: filtered, or x′ itself. */
+  const derivativeOf = (state: readonly number[], t: number, error: number): number => {
+    if (tf > 0) return ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
+    return onError ? stretch.referenceRate(t) - state[VELOCITY]! : -state[VELOCITY]!;
+  };
+
   const continuousRequest = (state: readonly number[], t: number, reference = stretch.reference(t)): number => {
     const error = reference - state[ANGLE]!;
-    let derivative: number;
-    if (tf > 0) derivative = ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
-    else derivative = onError ? stretch.referenceRate(t) - state[VELOCITY]! : -state[VELOCITY]!;
-    return n * (kp * error + (ki !== 0 ? ki * state[INTEGRAL]! : 0) + kd * derivative);
+    return pidRequest(pidGains, error, state[INTEGRAL]!, derivativeOf(state, t, error));
   };
 
   /** Drive torque asked for at the joint before limit and dead band, N·m. */
@@ -273,6 +318,13 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     if (!closedLoop) return stretch.torque(t);
     return sampled ? heldRequest : continuousRequest(state, t);
   };
+
+  /**
+   * The request the drive acts on: the limit itself while the integrator slides on it (the
+   * sliding motion's torque), which the computed request equals to integration accuracy.
+   */
+  const driveRequest = (state: readonly number[], t: number): number =>
+    windup.mode === 'sliding' ? windup.side * limit : requestedTorque(state, t);
 
   /** Every torque on the joint except friction, N·m. */
   const netTorque = (state: readonly number[], t: number, requested: number): number =>
@@ -282,32 +334,71 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     joint.stiffness * state[ANGLE]! +
     gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset);
 
+  /** θ′ and θ″ under a drive request, in the friction regime as it stands, into `into`. */
+  const jointRates = (state: readonly number[], t: number, requested: number, into: number[]) => {
+    const net = netTorque(state, t, requested);
+    if (frictionOn && slip === 0) {
+      into[ANGLE] = 0;
+      into[VELOCITY] = 0;
+    } else {
+      into[ANGLE] = state[VELOCITY]!;
+      into[VELOCITY] = (frictionOn ? net - slip * nl.coulombFriction : net) / joint.inertia;
+    }
+  };
+
+  /**
+   * The integral rate that keeps the request on the limit, from θ′ and θ″ with the drive at it:
+   * u′ = N·(kp·e′ + ki·I′ + kd·D′) = 0 (continuous-pid.ts).
+   */
+  const slidingRate = (state: readonly number[], t: number, error: number, angleRate: number, acceleration: number): number => {
+    const errorRate = stretch.referenceRate(t) - angleRate;
+    const derivativeRate =
+      tf > 0
+        ? ((onError ? errorRate : -angleRate) - derivativeOf(state, t, error)) / tf
+        : onError
+          ? stretch.referenceAcceleration(t) - acceleration
+          : -acceleration;
+    return slidingIntegralRate(pidGains, frozenRequestRate(pidGains, errorRate, derivativeRate));
+  };
+
+  const probeRates = [0, 0];
+  /** slidingRate at any state, with the drive on the limit `side`. */
+  const slidingRateAt = (state: readonly number[], t: number, error: number, side: 1 | -1): number => {
+    jointRates(state, t, side * limit, probeRates);
+    return slidingRate(state, t, error, probeRates[ANGLE]!, probeRates[VELOCITY]!);
+  };
+
   const rates = new Array<number>(stateSize).fill(0);
   const rhs = (t: number, state: number[]): number[] => {
     evaluations++;
     const reference = continuousLoop ? stretch.reference(t) : 0;
-    const requested = continuousLoop ? continuousRequest(state, t, reference) : requestedTorque(state, t);
-    const net = netTorque(state, t, requested);
-    if (frictionOn && slip === 0) {
-      rates[ANGLE] = 0;
-      rates[VELOCITY] = 0;
-    } else {
-      rates[ANGLE] = state[VELOCITY]!;
-      rates[VELOCITY] = (frictionOn ? net - slip * nl.coulombFriction : net) / joint.inertia;
-    }
+    const requested = continuousLoop
+      ? windup.mode === 'sliding'
+        ? windup.side * limit
+        : continuousRequest(state, t, reference)
+      : requestedTorque(state, t);
+    jointRates(state, t, requested, rates);
     if (stateSize > INTEGRAL) {
       const error = reference - state[ANGLE]!;
-      const windingUp = nl.antiWindup && Math.abs(requested) > limit && error * requested > 0;
-      rates[INTEGRAL] = windingUp ? 0 : error;
+      // The regime is fixed over the stretch; it changes only at located events (continuous-pid.ts).
+      const mode = windup.mode;
+      rates[INTEGRAL] = mode === 'integrating' ? error : integralRate(windup, error, mode === 'sliding' ? slidingRate(state, t, error, rates[ANGLE]!, rates[VELOCITY]!) : 0);
       if (stateSize > FILTER) rates[FILTER] = ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
     }
     return rates;
   };
 
-  /** The friction event function: it turns positive when the regime must change. */
-  const frictionEvent = (state: readonly number[], t: number): number => {
+  /**
+   * The friction event function: it turns positive when the regime must change.
+   * Why stick/slip cannot chatter: a slide starts only where |τ_net| > τs ≥ τc, so its
+   * acceleration (τ_net − s·τc)/J has the slide's sign and carries the velocity away from zero;
+   * a slide ends at exactly v = 0 and sticks only where |τ_net| ≤ τs, and stays stuck until the
+   * net torque has changed by a finite amount. Zeno-like hunting of a drive held at the
+   * breakaway threshold is bounded by maxFrictionEvents and the work budget.
+   */
+  const frictionEvent = (state: readonly number[], t: number, drive = driveRequest(state, t)): number => {
     if (slip !== 0) return -slip * state[VELOCITY]!;
-    return Math.abs(netTorque(state, t, requestedTorque(state, t))) - nl.staticFriction;
+    return Math.abs(netTorque(state, t, drive)) - nl.staticFriction;
   };
 
   const chooseFrictionRegime = () => {
@@ -315,8 +406,52 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       slip = Math.sign(y[VELOCITY]!);
       return;
     }
-    const net = netTorque(y, time, requestedTorque(y, time));
+    const net = netTorque(y, time, driveRequest(y, time));
     slip = Math.abs(net) > nl.staticFriction ? Math.sign(net) : 0;
+  };
+
+  /** The anti-windup event function at a state: positive once the integrator's regime no longer holds. */
+  const windupEvent = (state: readonly number[], t: number, error: number, requested: number): number => {
+    const rate = windup.mode === 'sliding' ? slidingRateAt(state, t, error, windup.side) : 0;
+    return integratorEvent(pidGains, windup, requested, error, rate);
+  };
+
+  /** Whether a regime must change at a state: the friction's or the integrator's (the request computed once for both). */
+  const regimeEnds = (state: readonly number[], t: number): boolean => {
+    if (!windupOn) return frictionEvent(state, t) > 0;
+    const error = stretch.reference(t) - state[ANGLE]!;
+    const requested = pidRequest(pidGains, error, state[INTEGRAL]!, derivativeOf(state, t, error));
+    if (frictionOn && frictionEvent(state, t, windup.mode === 'sliding' ? windup.side * limit : requested) > 0) return true;
+    return windupEvent(state, t, error, requested) > 0;
+  };
+
+  /** Puts the request exactly on the limit the integrator slides on (a restart removes the drift). */
+  const holdOnLimit = () => {
+    const error = stretch.reference(time) - y[ANGLE]!;
+    y[INTEGRAL] = integralOnLimit(pidGains, windup.side, error, derivativeOf(y, time, error));
+  };
+
+  const chooseWindupRegime = () => {
+    const reference = stretch.reference(time);
+    const error = reference - y[ANGLE]!;
+    const derivative = derivativeOf(y, time, error);
+    const requested = pidRequest(pidGains, error, y[INTEGRAL]!, derivative);
+    const reached = onLimit(pidGains, error, y[INTEGRAL]!, derivative);
+    const rate = reached ? slidingRateAt(y, time, error, requested >= 0 ? 1 : -1) : 0;
+    const next = chooseIntegratorRegime(pidGains, requested, error, rate, reached);
+    if (next.mode !== windup.mode || (next.mode !== 'integrating' && next.side !== windup.side)) windupSwitches++;
+    windup = next;
+    if (windup.mode === 'sliding') holdOnLimit();
+  };
+
+  /**
+   * At a stop: where the forcing changed (`forced`) the regime is chosen afresh; elsewhere it
+   * holds unless its event function says it ended there.
+   */
+  const reviewWindupRegime = (forced: boolean) => {
+    if (forced) return chooseWindupRegime();
+    const error = stretch.reference(time) - y[ANGLE]!;
+    if (windupEvent(y, time, error, continuousRequest(y, time)) > 0) chooseWindupRegime();
   };
 
   const applyJumpsAt = (t: number, terms: ForcingTerms) => {
@@ -340,6 +475,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   /** Brings the run to time t with y the left limit there: jumps, controller sample, friction regime. */
   const arriveAt = (t: number) => {
     time = t;
+    // The left limit of a sliding stretch is on the limit: the drift since the last restart goes.
+    if (windupOn && windup.mode === 'sliding') holdOnLimit();
     const breakpoints = forcing.breakpoints;
     const passed = breakpointIndex;
     while (breakpointIndex < breakpoints.length && breakpoints[breakpointIndex]! <= t + mergeEps) {
@@ -352,6 +489,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       nextSample++;
     }
     if (frictionOn) chooseFrictionRegime();
+    if (windupOn) reviewWindupRegime(breakpointIndex !== passed);
   };
 
   /** End of the next segment: the nearest input edge, sample instant, chunk end or horizon. */
@@ -426,8 +564,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     let count = 0;
     const emit = (t: number, state: readonly number[]) => {
       const requested = requestedTorque(state, t);
-      const applied = shapesDrive ? driveTorque(requested, limit, nl.deadBand) : requested;
-      const saturating = Math.abs(requested) > limit;
+      const sliding = windup.mode === 'sliding';
+      const drive = sliding ? windup.side * limit : requested;
+      const applied = shapesDrive ? driveTorque(drive, limit, nl.deadBand) : requested;
+      const saturating = sliding || Math.abs(requested) > limit;
       const sticking = frictionOn && slip === 0;
       out.t[count] = t;
       out.angle[count] = state[ANGLE]!;
@@ -439,7 +579,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (saturating) markOnset(0, t);
       if (nl.deadBand > 0 && requested !== 0) markOnset(1, t);
       if (frictionOn && !sticking && nl.coulombFriction > 0) markOnset(2, t);
-      if (sticking && netTorque(state, t, requested) !== 0) markOnset(3, t);
+      if (sticking && netTorque(state, t, drive) !== 0) markOnset(3, t);
       if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0) markOnset(4, t);
       count++;
       nextIndex++;
@@ -450,7 +590,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
 
     /**
      * One odex call over [start, end]: emits the grid points inside it and stops at a bound or at the
-     * first friction event (found on the dense output, which `active` must provide for an event).
+     * first regime event (found on the dense output, which `active` must provide for an event).
      */
     const integrateStretch = (active: Solver, start: number, end: number) => {
       let halt: 'bound' | 'event' | 'work' | 'deadline' | null = null;
@@ -479,11 +619,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
           return;
         }
         let stepEnd = x;
-        if (frictionOn) {
+        if (eventsOn) {
           const g = (t: number) => {
             evaluations++;
             for (let c = 0; c < stateSize; c++) eventState[c] = dense(c, t);
-            return frictionEvent(eventState, t);
+            return regimeEnds(eventState, t) ? 1 : -1;
           };
           // Scan the step at output spacing (at least 4 pieces, at most MAX_EVENT_SCAN): a long
           // step can carry the velocity through zero and back, which its end alone would not show.
@@ -550,11 +690,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         continue;
       }
       const gridInside = nextIndex <= lastWanted && gridTime(nextIndex) < end - eps;
-      // Without grid points inside, the interpolant is needed only for a friction event, and a
+      // Without grid points inside, the interpolant is needed only for a regime event, and a
       // slide can only end inside if the velocity reaches zero: try the cheaper solver first and
       // redo the stretch with dense output when the end state says the slide may have ended.
-      // (A sampled loop restarts at every sample, so this is most of its stretches.)
-      const tryPlain = !gridInside && (!frictionOn || slip !== 0);
+      // (A sampled loop restarts at every sample, so this is most of its stretches; a continuous
+      // loop with anti-windup regimes has few stretches and always looks for its events.)
+      const tryPlain = !gridInside && !windupOn && (!frictionOn || slip !== 0);
       const startAcceleration = tryPlain && frictionOn ? rhs(segmentStart, y)[VELOCITY]! : 0;
       let segment = integrateStretch(tryPlain ? plainSolver : solver, segmentStart, end);
       // A plain stretch left at the deadline is checked like a finished one: the slide may have ended inside.
@@ -592,9 +733,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       resumed = null;
       if (halt === 'event') {
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
+        // The same test the scan made at this state: a friction event, an integrator one, or both.
+        const frictionSwitch = frictionOn && frictionEvent(y, eventTime) > 0;
         // A slide ends exactly at rest; the bisection leaves |v| at roundoff level past zero.
-        if (slip !== 0) y[VELOCITY] = 0;
-        if (++frictionEvents > o.maxFrictionEvents) {
+        if (frictionSwitch && slip !== 0) y[VELOCITY] = 0;
+        if (frictionSwitch && ++frictionEvents > o.maxFrictionEvents) {
           stopAt(
             eventTime,
             `friction event bound: ${o.maxFrictionEvents} stick/slip switches by t = ${eventTime.toFixed(4)} s; the joint is being driven around the stiction threshold faster than the twin can follow`,
@@ -655,10 +798,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     if (started && added.delay === time) {
       // A stretch left at a deadline ends here: the kick starts a new one.
       resumed = null;
+      if (windupOn && windup.mode === 'sliding') holdOnLimit();
       stretch = forcing.stretchFrom(time, mergeEps);
       // Edges at `time` of the earlier terms were applied on arrival; only the new one's remains.
       applyJumpsAt(time, forcingTermsOf({ ...scenario, inputs: [added] }));
       if (frictionOn) chooseFrictionRegime();
+      if (windupOn) reviewWindupRegime(true);
       if (outOfBounds(y)) stopAt(time, boundMessage(y, time));
     }
     const edges = forcing.breakpoints;
@@ -685,6 +830,9 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     },
     get work() {
       return { evaluations, allowance: allowance(time) };
+    },
+    get switches() {
+      return { friction: frictionEvents, integrator: windupSwitches };
     },
     horizon,
     dt,

@@ -38,12 +38,26 @@ const scenario = {
   limits: { overshootPercent: 50, settlingTime: 5, steadyStateError: 0.001 },
 };
 
+// Issue 10 §1: a joint creeping at its torque limit until its anti-windup integrator slides on
+// the limit at t ≈ 2.05 s; the twin once stopped there and the command still exited 0.
+const creeping = {
+  kind: 'kinetwin/scenario',
+  version: 1,
+  name: 'creeping at the limit',
+  joint: { inertia: 0.05, damping: 5, stiffness: 0 },
+  controller: { mode: 'pid', kp: 10, ki: 50, kd: 0.1, derivativeOn: 'measurement' },
+  inputs: [{ channel: 'reference', shape: 'step', amplitude: 0.5, delay: 0.05 }],
+  horizon: 4,
+  nonlinear: { torqueLimit: 1, antiWindup: true },
+};
+
 let dir = '';
 beforeAll(async () => {
   dir = await mkdtemp(join(tmpdir(), 'kinetwin-cli-'));
   await writeFile(join(dir, 'ok.json'), JSON.stringify(scenario));
   await writeFile(join(dir, 'strict.json'), JSON.stringify({ ...scenario, limits: { overshootPercent: 1, settlingTime: null, steadyStateError: null } }));
   await writeFile(join(dir, 'bad.json'), JSON.stringify({ ...scenario, joint: { inertia: -1, damping: 0, stiffness: 0 } }));
+  await writeFile(join(dir, 'creeping.json'), JSON.stringify(creeping));
 });
 afterAll(async () => {
   await rm(dir, { recursive: true, force: true });
@@ -101,6 +115,19 @@ describe.concurrent('kinetwin command (child process)', { timeout: CHILD_TIMEOUT
     const r = await kinetwin(['check', 'strict.json'], dir);
     expect(r.code).toBe(1);
     expect(JSON.parse(r.stdout)).toMatchObject({ passed: false, limits: [{ limit: 'overshootPercent', met: false }] });
+  });
+
+  it('response --method sim runs the anti-windup integrator sliding on the limit to the horizon and exits 0 (via bin/kinetwin.mjs)', async () => {
+    const r = await kinetwin(['response', 'creeping.json', '--method', 'sim', '--dt', '0.001'], dir, true);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const lines = r.stdout.trim().split('\n');
+    expect(lines[0]).toBe('t,angle,velocity');
+    expect(lines).toHaveLength(4002);
+    const [t, angle] = lines.at(-1)!.split(',').map(Number);
+    expect(t).toBe(4);
+    // Past the slide the integral brings the joint back towards the reference.
+    expect(angle).toBeCloseTo(0.487, 3);
   });
 
   it('exits 2 on invalid input, naming the field and the reason', async () => {
