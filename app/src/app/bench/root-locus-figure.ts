@@ -10,8 +10,8 @@ export interface LocusFigure {
   layout: Partial<Layout>;
 }
 
-/** Branch colours: the app's primary 40 and tertiary 50, alternated (app/src/_theme-colors.scss). */
-const BRANCH_COLORS = ['#146871', '#ac6620'];
+/** Branch colour: the app's primary 40 (app/src/_theme-colors.scss); one legend entry for all branches. */
+const BRANCH_COLOR = '#146871';
 /** Current poles and the axes: the neutral palette's tones 20 and 60. */
 const MARKER_COLOR = '#293234';
 const AXIS_COLOR = '#899294';
@@ -31,7 +31,6 @@ export function locusFigure(locus: RootLocus): LocusFigure {
   const data: Partial<ScatterData>[] = [];
   const valueText = (v: number) => `${locus.gain} = ${formatQuantity(v)}`;
   for (let j = 0; j < branches; j++) {
-    const color = BRANCH_COLORS[j % BRANCH_COLORS.length]!;
     data.push({
       type: 'scatter',
       mode: 'lines',
@@ -41,7 +40,7 @@ export function locusFigure(locus: RootLocus): LocusFigure {
       x: locus.poles.map((poles) => poles[j]!.re),
       y: locus.poles.map((poles) => poles[j]!.im),
       customdata: locus.values,
-      line: { color, width: 2 },
+      line: { color: BRANCH_COLOR, width: 2 },
       hovertemplate: `${locus.gain} = %{customdata:.4g}<br>s = %{x:.4g} %{y:+.4g}j<extra></extra>`,
     });
   }
