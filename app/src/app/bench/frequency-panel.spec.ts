@@ -237,6 +237,19 @@ describe('FrequencyPanel', () => {
       http.verify();
     });
 
+    it('offers no reference channel in open loop and names the torque default there', async () => {
+      fixture.componentRef.setInput('draft', draft(0, 'open-loop'));
+      await untilReceived(1);
+      const options = [...root.querySelectorAll<HTMLOptionElement>('[data-test=sweep-channel] option')];
+      expect(options.map((o) => [o.value, o.textContent!.trim(), o.disabled])).toEqual([
+        ['default', 'Default: torque (open loop)', false],
+        ['reference', 'reference → angle (closed loop only)', true],
+        ['torque', 'torque → angle', false],
+      ]);
+      expect(text('[data-test=sweep-amplitude-default]')).toBe('default: 1 N·m: the scenario has no torque term to take it from');
+      expect(root.querySelector<HTMLButtonElement>('[data-test=measure-twin]')!.disabled).toBe(false);
+    });
+
     it("shows the server's refusal with its field errors, and refuses a bad amplitude before sending", async () => {
       const http = TestBed.inject(HttpTestingController);
       fixture.componentRef.setInput('draft', wrist);

@@ -11,11 +11,11 @@ export type SweepChannelChoice = 'default' | InputChannel;
 /** Largest amplitude the sweep route accepts (shared/protocol/check-api.ts). */
 const MAX_SWEEP_AMPLITUDE = 1e9;
 
-/** What the server will use when the form leaves a field at its default, in words for the labels. */
+/** The channel and amplitude a sweep will use for the form's choice, and the server's defaults in words for the labels. */
 export interface SweepDefaults {
   channel: InputChannel;
   amplitude: number;
-  /** e.g. "reference (closed loop)". */
+  /** The channel the server picks when none is named, e.g. "reference (closed loop)". */
   channelText: string;
   /** e.g. "0.5 rad, the largest of the scenario's reference terms". */
   amplitudeText: string;
