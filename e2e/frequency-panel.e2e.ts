@@ -13,6 +13,8 @@ const ARTIFACTS = 'test-results';
 const engineer = DEMO_ACCOUNTS.find((a) => a.role === 'engineer')!;
 const baseUrl = inject('baseUrl');
 const PANEL = '[data-test=frequency-panel]';
+/** A measured sweep is one twin run per frequency in a worker on the server; the first also starts that worker. */
+const SWEEP = { timeout: 60_000 };
 
 const text = async (page: Page, selector: string) => ((await page.locator(selector).first().textContent()) ?? '').replace(/\s+/g, ' ').trim();
 /** The first number in a text, e.g. 72.59 from "72.59°" or 35.91 from "at the gain crossover, 35.91 rad/s". */
@@ -125,6 +127,68 @@ describe('frequency panel in Chromium', () => {
     expect(await text(page, `${PANEL} [data-test=frequency-paths]`)).toMatch(/^Open loop: only torque → angle is drawn/);
     await expect.poll(() => page.locator(`${PANEL} [data-test=bode-chart]`).getAttribute('data-traces')).toBe('2');
     expect(await page.locator(`${PANEL} [data-test=bode-chart] .legendtext`).allTextContents()).toEqual(['torque → angle']);
+    expect(problems).toEqual([]);
+    await page.close();
+  });
+
+  it("measures the twin of the wrist demo on the panel's grid and draws it on the closed form, within 0.01 dB", async () => {
+    const page = await browser.context.newPage();
+    const problems = consoleProblems(page);
+    await signInAs(page, baseUrl, engineer);
+    await page.locator('[data-test=scenario-row]', { hasText: 'Wrist pitch' }).locator('a[data-test=open-scenario]').click();
+    await page.waitForURL('**/bench/*');
+    const scenario = await storedScenario(page, new URL(page.url()).pathname.split('/').at(-1)!);
+    // The demo has every effect off: the twin is the linear joint the closed form solves.
+    expect(scenario.nonlinear).toEqual({});
+    await expect.poll(() => page.locator(`${PANEL} [data-test=bode-chart]`).getAttribute('data-traces')).toBe('7');
+
+    // The default grid has 200 points: the sweep takes 40 of it and says so; the defaults are the server's.
+    expect(await text(page, `${PANEL} [data-test=sweep-grid]`)).toBe("On 40 log-spaced frequencies from 0.1 rad/s to 1000 rad/s: the panel's grid, capped at 40 points, because each frequency is a full twin run.");
+    expect(await text(page, `${PANEL} [data-test=sweep-amplitude-default]`)).toBe("default: 0.5 rad, the largest of the scenario's reference terms");
+    expect(await text(page, `${PANEL} [data-test=sweep-channel] option[value=default]`)).toBe('Default: reference (closed loop)');
+
+    // A shorter grid keeps the test to a handful of twin runs.
+    await page.fill('input[name="grid-points"]', '7');
+    await expect.poll(() => text(page, `${PANEL} [data-test=sweep-grid]`)).toBe("On 7 log-spaced frequencies from 0.1 rad/s to 1000 rad/s: the panel's grid.");
+    await page.click(`${PANEL} [data-test=measure-twin]`);
+    await expect.poll(() => page.locator(`${PANEL} [data-test=sweep-running]`).count()).toBe(1);
+    await expect.poll(() => text(page, `${PANEL} [data-test=sweep-summary]`), SWEEP).toMatch(/^reference → angle, a sine of 0\.5 rad on the reference: 7 of 7 frequencies measured in [0-9.e-]+ s on the server\.$/);
+    expect(await page.locator(`${PANEL} [data-test=sweep-running]`).count()).toBe(0);
+    expect(await page.locator(`${PANEL} [data-test=sweep-unmeasured]`).count()).toBe(0);
+
+    const grid = frequencyResponseOf(scenario, { from: 0.1, to: 1000, points: 7 });
+    if (!grid.ok) throw new Error('grid refused');
+    const want = grid.value.referenceToAngle!;
+    const rows = page.locator(`${PANEL} [data-test=sweep-point]`);
+    expect(await rows.count()).toBe(7);
+    for (let i = 0; i < 7; i++) {
+      const row = rows.nth(i);
+      const cell = async (name: string) => numberIn((await row.locator(`[data-test=${name}]`).textContent()) ?? '');
+      expect(agrees(await cell('frequency'), grid.value.frequency[i]!)).toBe(true);
+      expect(agrees(await cell('closed-form-magnitude'), want.magnitudeDb[i]!)).toBe(true);
+      // Shown to four figures: the measured figure sits within 0.01 dB of the closed form's, and the gap says so.
+      expect(Math.abs((await cell('magnitude')) - want.magnitudeDb[i]!)).toBeLessThanOrEqual(0.01 + 5e-4 * Math.abs(want.magnitudeDb[i]!));
+      expect(Math.abs(await cell('magnitude-gap'))).toBeLessThanOrEqual(0.01);
+      expect(Math.abs(await cell('phase-gap'))).toBeLessThanOrEqual(0.01);
+      expect(await row.locator('[data-test=flags]').textContent()).toBe('');
+    }
+
+    // The markers on the chart: the reference path's colour, both panels, on the closed form within 0.01 dB.
+    await expect.poll(() => page.locator(`${PANEL} [data-test=bode-chart]`).getAttribute('data-traces')).toBe('9');
+    expect(await page.locator(`${PANEL} [data-test=bode-chart] .legendtext`).allTextContents()).toEqual(['loop L(jω)', 'reference → angle', 'torque → angle', 'measured (twin)', 'gain crossover']);
+    const markers = await page
+      .locator(`${PANEL} [data-test=bode-chart] .js-plotly-plot`)
+      .evaluate((plot) => (plot as unknown as { data: { legendgroup?: string; x: number[]; y: (number | null)[]; yaxis: string }[] }).data.filter((t) => t.legendgroup === 'measured').map((t) => ({ x: t.x, y: t.y, yaxis: t.yaxis })));
+    expect(markers.map((m) => m.yaxis)).toEqual(['y', 'y2']);
+    markers[0]!.y.forEach((db, i) => expect(Math.abs(db! - want.magnitudeDb[i]!)).toBeLessThanOrEqual(0.01));
+    markers[1]!.y.forEach((deg, i) => expect(Math.abs(deg! - want.phaseDeg[i]!)).toBeLessThanOrEqual(0.01));
+    expect(await page.locator(`${PANEL} [data-test=bode-chart] .scatterlayer .trace .points path`).count()).toBeGreaterThanOrEqual(14);
+    await page.locator(PANEL).screenshot({ path: `${ARTIFACTS}/frequency-panel-measured.png` });
+
+    // Another gain is another draft: the measurement stays, marked stale, its markers faded.
+    await page.fill('input[name="controller.kd"]', '0.15');
+    await expect.poll(() => page.locator(`${PANEL} [data-test=sweep-stale]`).count()).toBe(1);
+    await expect.poll(async () => page.locator(`${PANEL} [data-test=bode-chart] .legendtext`).allTextContents()).toContain('measured (twin, stale)');
     expect(problems).toEqual([]);
     await page.close();
   });

@@ -24,7 +24,9 @@ import { type ClosedFormView, closedFormView } from './closed-form-view';
 import { FrequencyPanel } from './frequency-panel';
 import { JointView } from './joint-view';
 import { type KickEntry, KickPanel, type KickRequest } from './kick-panel';
+import { LinearizePanel } from './linearize-panel';
 import { type ResidualPeak, largestResidual } from './residual';
+import { RootLocusPanel } from './root-locus-panel';
 import { runChoice } from './run-choice';
 import { SaveRevisionPanel } from './save-revision-panel';
 import { RunRecord, type SampleFlags, latestFlags } from './run-record';
@@ -73,14 +75,14 @@ const LINK_TEXT: Record<RunLink, string> = {
 
 /**
  * One scenario on the bench: its quantities and their unsaved edits, the live twin in 3D, the
- * angle chart with the closed form over it, the checks panel, the frequency panel, and the
- * closed-form panel.
+ * angle chart with the closed form over it, the checks panel, the frequency panel, the root
+ * locus, the linear model about a pose (for a gravity-loaded joint), and the closed-form panel.
  */
 @Component({
   selector: 'kt-bench',
   changeDetection: ChangeDetectionStrategy.OnPush,
   providers: [RunSocket],
-  imports: [AngleChart, ChecksPanel, ClosedFormPanel, FrequencyPanel, JointView, KickPanel, MatButtonModule, MatIconModule, MatSliderModule, RouterLink, SaveRevisionPanel, TuningForm],
+  imports: [AngleChart, ChecksPanel, ClosedFormPanel, FrequencyPanel, JointView, KickPanel, LinearizePanel, MatButtonModule, MatIconModule, MatSliderModule, RootLocusPanel, RouterLink, SaveRevisionPanel, TuningForm],
   templateUrl: './bench.html',
   styleUrl: './bench.css',
 })

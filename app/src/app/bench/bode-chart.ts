@@ -1,13 +1,14 @@
 import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, afterNextRender, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import type { FrequencyResponse } from '@kinetwin/shared/frequency/frequency-response';
 import { bodeFigure } from './bode-figure';
+import type { MeasuredOverlay } from './sweep-readout';
 
 type Plotly = typeof import('plotly.js-dist-min').default;
 
 /**
  * The Bode chart of the frequency panel: magnitude above phase on one log frequency axis, drawn
  * with Plotly (imported on first use, as the angle chart does, so it stays out of the first
- * page's bundle). Each new response redraws the figure with Plotly.react. The host's
+ * page's bundle). Each new response or measured overlay redraws the figure with Plotly.react. The host's
  * `data-traces` attribute counts the traces on the plot (0 before the first draw).
  */
 @Component({
@@ -25,6 +26,8 @@ type Plotly = typeof import('plotly.js-dist-min').default;
 export class BodeChart {
   /** The response to draw; null leaves the last drawing as it is. */
   readonly response = input<FrequencyResponse | null>(null);
+  /** The twin's measured points to draw over their path, or null for none. */
+  readonly measured = input<MeasuredOverlay | null>(null);
 
   private readonly plot = viewChild.required<ElementRef<HTMLDivElement>>('plot');
   private readonly drawnTraces = signal(0);
@@ -34,7 +37,7 @@ export class BodeChart {
 
   private plotly: Plotly | null = null;
   private destroyed = false;
-  private drawn: FrequencyResponse | null = null;
+  private drawn: { response: FrequencyResponse; measured: MeasuredOverlay | null } | null = null;
   /** Plot calls run one after another; a queued draw takes the newest response when it runs. */
   private queue: Promise<void> = Promise.resolve();
   private drawQueued = false;
@@ -52,6 +55,7 @@ export class BodeChart {
 
     effect(() => {
       this.response();
+      this.measured();
       this.scheduleDraw();
     });
 
@@ -77,10 +81,11 @@ export class BodeChart {
   private async draw(): Promise<void> {
     const plotly = this.plotly;
     const response = untracked(this.response);
-    if (!plotly || this.destroyed || response === null || response === this.drawn) return;
-    const figure = bodeFigure(response);
+    const measured = untracked(this.measured);
+    if (!plotly || this.destroyed || response === null || (response === this.drawn?.response && measured === this.drawn.measured)) return;
+    const figure = bodeFigure(response, measured);
     await plotly.react(this.plot().nativeElement, figure.data, figure.layout, { responsive: true, displaylogo: false });
-    this.drawn = response;
+    this.drawn = { response, measured };
     this.drawnTraces.set(figure.data.length);
   }
 }

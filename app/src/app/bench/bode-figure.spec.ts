@@ -1,6 +1,7 @@
 import { type FrequencyResponse, frequencyResponseOf } from '@kinetwin/shared/frequency/frequency-response';
 import { parseScenario } from '@kinetwin/shared/scenario/parse-scenario';
 import { bodeFigure, valueAtFrequency } from './bode-figure';
+import type { MeasuredOverlay } from './sweep-readout';
 
 // Invented demo values: integral action only on J = 1, b = 3, k = 2 gives L = 1/(s(s+1)(s+2)),
 // phase crossover at √2 rad/s (the classic third-order example; common practice).
@@ -77,6 +78,39 @@ describe('bodeFigure', () => {
     const { data, layout } = bodeFigure(responseOf({ mode: 'pid', kp: 0, ki: 1, kd: 0 }, { from: 10, to: 1000, points: 50 }));
     expect(data.some((trace) => trace.mode === 'markers')).toBe(false);
     expect(layout.shapes!.filter((shape) => shape.xref === 'x')).toEqual([]);
+  });
+
+  it("draws the twin's measured points as markers on both panels of their path, after the curves, faded when stale", () => {
+    const response = thirdOrder();
+    const measured: MeasuredOverlay = { path: 'referenceToAngle', frequency: [0.1, 1, 10], magnitudeDb: [0.1, -2, null], phaseDeg: [-5, -90, null], distortion: [1e-6, 0.2, null], stale: false };
+    const { data } = bodeFigure(response, measured);
+    const markers = data.filter((trace) => trace.legendgroup === 'measured');
+    expect(data.indexOf(markers[0]!)).toBeGreaterThan(data.findIndex((trace) => trace.name === 'torque → angle'));
+    expect(markers.map((trace) => [trace.name, trace.mode, trace.yaxis, trace.showlegend ?? true, trace.opacity])).toEqual([
+      ['measured (twin)', 'markers', 'y', true, 1],
+      ['measured (twin)', 'markers', 'y2', false, 1],
+    ]);
+    expect(markers[0]!.x).toBe(measured.frequency);
+    expect(markers[0]!.y).toBe(measured.magnitudeDb);
+    expect(markers[1]!.y).toBe(measured.phaseDeg);
+    // Each marker's hover reads the measured magnitude, phase and distortion (in %).
+    expect((markers[0]!.customdata as unknown[])[1]).toEqual([-2, -90, 20]);
+    expect(markers[0]!.hovertemplate).toContain('reference → angle');
+    const stale = bodeFigure(response, { ...measured, stale: true }).data.filter((trace) => trace.legendgroup === 'measured');
+    expect(stale.map((trace) => [trace.name, trace.opacity])).toEqual([
+      ['measured (twin, stale)', 0.35],
+      ['measured (twin, stale)', 0.35],
+    ]);
+  });
+
+  it('leaves measured points off a response without their path', () => {
+    const parsed = parseScenario({ kind: 'kinetwin/scenario', version: 1, name: 'Demo free inertia', joint: { inertia: 0.01, damping: 0.1, stiffness: 1 }, controller: { mode: 'open-loop' }, horizon: 1 });
+    if (!parsed.ok) throw new Error('fixture invalid');
+    const result = frequencyResponseOf(parsed.value, { from: 0.1, to: 1000, points: 40 });
+    if (!result.ok) throw new Error('grid refused');
+    const overlay: MeasuredOverlay = { path: 'referenceToAngle', frequency: [1], magnitudeDb: [0], phaseDeg: [0], distortion: [0], stale: false };
+    expect(bodeFigure(result.value, overlay).data.some((trace) => trace.legendgroup === 'measured')).toBe(false);
+    expect(bodeFigure(result.value, { ...overlay, path: 'torqueToAngle' }).data.filter((trace) => trace.legendgroup === 'measured')).toHaveLength(2);
   });
 
   it('draws only torque → angle in open loop', () => {

@@ -2,6 +2,7 @@ import type { BodeSeries, FrequencyResponse } from '@kinetwin/shared/frequency/f
 import type { Annotation, Layout, ScatterData, Shape } from 'plotly.js-dist-min';
 import { formatDegrees, PATH_NAMES } from './frequency-readout';
 import { formatQuantity } from './scenario-facts';
+import type { MeasuredOverlay } from './sweep-readout';
 
 /** What the Bode chart hands to Plotly: traces and layout, built without Plotly so they can be tested. */
 export interface BodeFigure {
@@ -83,6 +84,20 @@ function pathTraces(key: PathKey, series: BodeSeries, frequency: number[]): Part
   ];
 }
 
+/** The twin's measured points as markers on both panels, in their path's colour; faded when stale. */
+function measuredTraces(measured: MeasuredOverlay): Partial<ScatterData>[] {
+  const name = measured.stale ? 'measured (twin, stale)' : 'measured (twin)';
+  const marker = { symbol: 'circle', size: 8, color: PATH_STYLE[measured.path].color, line: { color: MARKER_COLOR, width: 1 } };
+  const opacity = measured.stale ? 0.35 : 1;
+  const custom = measured.frequency.map((_, i) => [measured.magnitudeDb[i] ?? null, measured.phaseDeg[i] ?? null, measured.distortion[i] === null ? null : measured.distortion[i]! * 100]);
+  const hovertemplate = `${name}, ${PATH_NAMES[measured.path]}<br>ω = %{x:.4g} rad/s<br>magnitude %{customdata[0]:.4g} dB<br>phase %{customdata[1]:.4g}°<br>distortion %{customdata[2]:.3g} %<extra></extra>`;
+  const common = { type: 'scatter', mode: 'markers', legendgroup: 'measured', x: measured.frequency, customdata: custom, xaxis: 'x', marker, opacity, hovertemplate } as const;
+  return [
+    { ...common, name, y: measured.magnitudeDb, yaxis: 'y' } as Partial<ScatterData>,
+    { ...common, name, showlegend: false, y: measured.phaseDeg, yaxis: 'y2' } as Partial<ScatterData>,
+  ];
+}
+
 /** A dotted vertical line through both panels at a crossover, labelled at the top of the magnitude panel. */
 function crossoverLine(w: number, label: string): { shape: Partial<Shape>; annotation: Partial<Annotation> } {
   return {
@@ -101,14 +116,17 @@ function levelLine(yref: 'y' | 'y2', y: number): Partial<Shape> {
  * The Bode chart of a response: magnitude (dB) above phase (°) against ω on a log axis, one
  * legend entry per path (a null cell is a gap in its line), the gain crossover marked at 0 dB and
  * the phase crossover on the loop's phase, 0 dB and −180° reference lines. A crossover outside
- * the grid is left off the chart (the read-out still gives it).
+ * the grid is left off the chart (the read-out still gives it). The twin's measured points, when
+ * given, are markers over the curves of the path they measure (left off when the response has no
+ * such path, e.g. a reference sweep over an open-loop draft).
  */
-export function bodeFigure(response: FrequencyResponse): BodeFigure {
+export function bodeFigure(response: FrequencyResponse, measured: MeasuredOverlay | null = null): BodeFigure {
   const { frequency, margins } = response;
   const data: Partial<ScatterData>[] = [];
   if (response.loop) data.push(...pathTraces('loop', response.loop, frequency));
   if (response.referenceToAngle) data.push(...pathTraces('referenceToAngle', response.referenceToAngle, frequency));
   data.push(...pathTraces('torqueToAngle', response.torqueToAngle, frequency));
+  if (measured && response[measured.path]) data.push(...measuredTraces(measured));
 
   const shapes: Partial<Shape>[] = [levelLine('y', 0), levelLine('y2', -180)];
   const annotations: Partial<Annotation>[] = [];

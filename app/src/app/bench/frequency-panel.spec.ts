@@ -1,18 +1,23 @@
+import { provideHttpClient } from '@angular/common/http';
+import { HttpTestingController, provideHttpClientTesting } from '@angular/common/http/testing';
 import { Component, effect, input } from '@angular/core';
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import { By } from '@angular/platform-browser';
 import { type FrequencyResponse, frequencyResponseOf } from '@kinetwin/shared/frequency/frequency-response';
 import { parseScenario } from '@kinetwin/shared/scenario/parse-scenario';
+import type { SineSweepResponse } from '@kinetwin/shared/protocol/check-api';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { Parsed } from '@kinetwin/shared/validation/field-errors';
 import { BodeChart } from './bode-chart';
 import { FrequencyPanel } from './frequency-panel';
 import { formatDegrees } from './frequency-readout';
+import type { MeasuredOverlay } from './sweep-readout';
 
 /** Takes the chart's place: Plotly does not run under jsdom; every response the panel hands it is recorded. */
 @Component({ selector: 'kt-bode-chart', template: '' })
 class RecordingBodeChart {
   readonly response = input<FrequencyResponse | null>(null);
+  readonly measured = input<MeasuredOverlay | null>(null);
   readonly received: FrequencyResponse[] = [];
   constructor() {
     effect(() => {
@@ -67,6 +72,7 @@ describe('FrequencyPanel', () => {
   }
 
   beforeEach(() => {
+    TestBed.configureTestingModule({ providers: [provideHttpClient(), provideHttpClientTesting()] });
     TestBed.overrideComponent(FrequencyPanel, { remove: { imports: [BodeChart] }, add: { imports: [RecordingBodeChart] } });
     fixture = TestBed.createComponent(FrequencyPanel);
     root = fixture.nativeElement;
@@ -155,5 +161,119 @@ describe('FrequencyPanel', () => {
     expect(text('[data-test=frequency-verdict]')).toContain('open loop');
     expect(root.querySelector('[data-test=margins]')).toBeNull();
     expect(text('[data-test=frequency-paths]')).toMatch(/^Open loop: only torque → angle is drawn/);
+  });
+
+  describe('measuring the twin', () => {
+    const wrist = draft(0.4);
+    // Shaped like the server's answer for the wrist demo on a three-point grid (the closed form
+    // itself at the first point, a torque limit bending the second, the third without a figure).
+    function answerFor(grid: { from: number; to: number; points: number }): SineSweepResponse {
+      const cf = expected(wrist, grid).referenceToAngle!;
+      return {
+        channel: 'reference',
+        amplitude: 0.5,
+        elapsedMs: 800,
+        points: [
+          { frequency: 1, magnitudeDb: cf.magnitudeDb[0]!, phaseDeg: cf.phaseDeg[0]!, distortion: 2e-8, saturated: false, stuck: false, reason: null },
+          { frequency: 10, magnitudeDb: -1, phaseDeg: -70, distortion: 0.04, saturated: true, stuck: false, reason: null },
+          { frequency: 100, magnitudeDb: null, phaseDeg: null, distortion: null, saturated: false, stuck: false, reason: 'the twin stopped: work budget spent' },
+        ],
+      };
+    }
+
+    it("posts the draft and the panel's grid capped at 40 points, leaving the defaults unsaid", async () => {
+      const http = TestBed.inject(HttpTestingController);
+      fixture.componentRef.setInput('draft', wrist);
+      await untilReceived(1);
+      expect(text('[data-test=sweep-grid]')).toBe("On 40 log-spaced frequencies from 0.1 rad/s to 1000 rad/s: the panel's grid, capped at 40 points, because each frequency is a full twin run.");
+      expect(text('[data-test=sweep-amplitude-default]')).toBe("default: 0.5 rad, the largest of the scenario's reference terms");
+      expect(text('[data-test=sweep-channel] option')).toBe('Default: reference (closed loop)');
+      root.querySelector<HTMLButtonElement>('[data-test=measure-twin]')!.click();
+      await nextFrame();
+      expect(root.querySelector('[data-test=sweep-running]')).not.toBeNull();
+      expect(root.querySelector<HTMLButtonElement>('[data-test=measure-twin]')!.disabled).toBe(true);
+      const request = http.expectOne('/api/checks/sine-sweep');
+      expect(request.request.method).toBe('POST');
+      expect(request.request.body).toEqual({ scenario: wrist.ok && wrist.value, from: 0.1, to: 1000, points: 40 });
+      request.flush(answerFor({ from: 1, to: 100, points: 3 }));
+      await nextFrame();
+      expect(root.querySelector('[data-test=sweep-running]')).toBeNull();
+      http.verify();
+    });
+
+    it('draws the answer over the curves, reads each point against the closed form, lists the points without a figure, and goes stale with the draft', async () => {
+      const http = TestBed.inject(HttpTestingController);
+      fixture.componentRef.setInput('draft', wrist);
+      await untilReceived(1);
+      await typeGrid('grid-from', '1');
+      await typeGrid('grid-to', '100');
+      await typeGrid('grid-points', '3');
+      field('sweep-amplitude').value = '0.25';
+      field('sweep-amplitude').dispatchEvent(new Event('input'));
+      await nextFrame();
+      root.querySelector<HTMLButtonElement>('[data-test=measure-twin]')!.click();
+      await nextFrame();
+      const request = http.expectOne('/api/checks/sine-sweep');
+      expect(request.request.body).toMatchObject({ from: 1, to: 100, points: 3, amplitude: 0.25 });
+      expect('channel' in request.request.body).toBe(false);
+      request.flush(answerFor({ from: 1, to: 100, points: 3 }));
+      await nextFrame();
+
+      const overlay = fixture.debugElement.query(By.directive(RecordingBodeChart)).componentInstance.measured() as MeasuredOverlay;
+      expect(overlay).toMatchObject({ path: 'referenceToAngle', frequency: [1, 10, 100], stale: false });
+      const rows = root.querySelectorAll('[data-test=sweep-point]');
+      expect(rows).toHaveLength(2);
+      expect(rows[0]!.querySelector('[data-test=magnitude-gap]')!.textContent).toBe('+0 dB');
+      expect(rows[1]!.querySelector('[data-test=flags]')!.textContent).toBe('torque limit');
+      expect(rows[1]!.querySelector('[data-test=distortion]')!.textContent).toBe('4 %');
+      expect(text('[data-test=sweep-unmeasured]')).toBe('100 rad/s: the twin stopped: work budget spent');
+      expect(text('[data-test=sweep-summary]')).toContain('2 of 3 frequencies measured');
+      expect(root.querySelector('[data-test=sweep-stale]')).toBeNull();
+
+      fixture.componentRef.setInput('draft', draft(0.3));
+      await nextFrame();
+      expect(root.querySelector('[data-test=sweep-stale]')).not.toBeNull();
+      expect((fixture.debugElement.query(By.directive(RecordingBodeChart)).componentInstance.measured() as MeasuredOverlay).stale).toBe(true);
+      http.verify();
+    });
+
+    it('offers no reference channel in open loop and names the torque default there', async () => {
+      fixture.componentRef.setInput('draft', draft(0, 'open-loop'));
+      await untilReceived(1);
+      const options = [...root.querySelectorAll<HTMLOptionElement>('[data-test=sweep-channel] option')];
+      expect(options.map((o) => [o.value, o.textContent!.trim(), o.disabled])).toEqual([
+        ['default', 'Default: torque (open loop)', false],
+        ['reference', 'reference → angle (closed loop only)', true],
+        ['torque', 'torque → angle', false],
+      ]);
+      expect(text('[data-test=sweep-amplitude-default]')).toBe('default: 1 N·m: the scenario has no torque term to take it from');
+      expect(root.querySelector<HTMLButtonElement>('[data-test=measure-twin]')!.disabled).toBe(false);
+    });
+
+    it("shows the server's refusal with its field errors, and refuses a bad amplitude before sending", async () => {
+      const http = TestBed.inject(HttpTestingController);
+      fixture.componentRef.setInput('draft', wrist);
+      await untilReceived(1);
+      field('sweep-amplitude').value = '-2';
+      field('sweep-amplitude').dispatchEvent(new Event('input'));
+      await nextFrame();
+      expect(text('[data-test=sweep-error-amplitude]')).toBe('must be positive');
+      expect(root.querySelector<HTMLButtonElement>('[data-test=measure-twin]')!.disabled).toBe(true);
+      field('sweep-amplitude').value = '';
+      field('sweep-amplitude').dispatchEvent(new Event('input'));
+      await nextFrame();
+      root.querySelector<HTMLButtonElement>('[data-test=measure-twin]')!.click();
+      await nextFrame();
+      http
+        .expectOne('/api/checks/sine-sweep')
+        .flush(
+          { error: { code: 'bad_request', message: "The twin's response cannot be measured; nothing was run.", fields: [{ field: '', message: 'the loop is unstable: there is no steady response to measure' }] } },
+          { status: 400, statusText: 'Bad Request' },
+        );
+      await nextFrame();
+      expect(text('[data-test=sweep-error]')).toBe("The twin's response cannot be measured; nothing was run. the loop is unstable: there is no steady response to measure");
+      expect(root.querySelector<HTMLButtonElement>('[data-test=measure-twin]')!.disabled).toBe(false);
+      http.verify();
+    });
   });
 });

@@ -1,4 +1,4 @@
-import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked } from '@angular/core';
+import { ChangeDetectionStrategy, Component, DestroyRef, computed, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule } from '@angular/forms';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -14,6 +14,7 @@ import { type FrequencyEngine, loadFrequencyEngine } from './frequency-engine';
 import { DEFAULT_GRID_TEXTS, type GridField, type GridTexts, gridRequestOf } from './frequency-grid-input';
 import { frequencyReadout } from './frequency-readout';
 import { samePlainData } from './scenario-draft';
+import { TwinSweep } from './twin-sweep';
 
 /** A valid draft on a valid grid: what one frequency response is computed for. */
 interface FrequencyRequest {
@@ -41,12 +42,14 @@ class MessageErrorMatcher implements ErrorStateMatcher {
  * the Bode chart of the loop, reference → angle and torque → angle, the margins, bandwidth,
  * stability verdict and notes, on a grid the user sets. The draft may change on every
  * keystroke; the response is recomputed at most once per animation frame, for the newest draft.
- * While the draft or the grid is invalid the last response stays, dimmed, with the reason.
+ * While the draft or the grid is invalid the last response stays, dimmed, with the reason. Below
+ * the chart the twin itself can be measured on the same grid (on the server), its points drawn
+ * over the curves.
  */
 @Component({
   selector: 'kt-frequency-panel',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [BodeChart, MatFormFieldModule, MatInputModule, ReactiveFormsModule],
+  imports: [BodeChart, MatFormFieldModule, MatInputModule, ReactiveFormsModule, TwinSweep],
   host: { 'data-test': 'frequency-panel' },
   templateUrl: './frequency-panel.html',
   styleUrls: ['./bench-panel.css', './frequency-panel.css'],
@@ -61,7 +64,7 @@ export class FrequencyPanel {
     points: new FormControl(DEFAULT_GRID_TEXTS.points, { nonNullable: true }),
   });
   private readonly gridTexts = toSignal(this.gridForm.valueChanges.pipe(map((): GridTexts => this.gridForm.getRawValue())), { initialValue: DEFAULT_GRID_TEXTS });
-  private readonly grid = computed(() => gridRequestOf(this.gridTexts()));
+  protected readonly grid = computed(() => gridRequestOf(this.gridTexts()));
   private readonly gridMessages = computed(() => {
     const grid = this.grid();
     const messages: Record<GridField, string | null> = { from: null, to: null, points: null };
@@ -78,7 +81,7 @@ export class FrequencyPanel {
     points: new MessageErrorMatcher(() => this.gridMessages().points),
   };
 
-  private readonly engine = signal<FrequencyEngine | null>(null);
+  protected readonly engine = signal<FrequencyEngine | null>(null);
   private readonly engineFailureText = signal<string | null>(null);
   protected readonly engineFailure = this.engineFailureText.asReadonly();
 
@@ -108,6 +111,9 @@ export class FrequencyPanel {
     if (!this.grid().ok) return 'Fix the frequency grid: the response shown is for the last valid grid.';
     return null;
   });
+  private readonly sweep = viewChild(TwinSweep);
+  /** The twin's measured points, drawn over the closed form's curves. */
+  protected readonly measured = computed(() => this.sweep()?.overlay() ?? null);
   protected readonly loading = computed(() => this.result().kind === 'none' && this.engineFailure() === null && this.request() !== null);
 
   private frame: number | null = null;

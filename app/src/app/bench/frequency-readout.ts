@@ -35,8 +35,8 @@ export interface FrequencyReadout {
   paths: string;
 }
 
-/** The shared margin report's words for a plant unstable on its own (shared/frequency/stability-margins.ts). */
-const UNSTABLE_PLANT_NOTE = 'the open-loop plant is unstable';
+/** The shared words for a plant unstable on its own (shared/frequency/stability-margins.ts, shared/linearize/operating-point.ts). */
+export const UNSTABLE_PLANT_NOTE = 'the open-loop plant is unstable';
 
 export const UNSTABLE_PLANT_CAUTION =
   'Caution: the joint is unstable without its loop. Read the stability verdict, not the margins: positive gain and phase margins do not make this loop stable.';
