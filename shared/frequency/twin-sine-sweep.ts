@@ -7,6 +7,8 @@ import { createTwinRun } from '../twin/twin-run';
 import { frequencyResponseOf } from './frequency-response';
 import { loopChannelsOf } from './loop-channels';
 
+export { defaultSweepAmplitude, defaultSweepChannel } from './sweep-defaults';
+
 /** Settings of a measured sweep; the README quotes the defaults. */
 export const SINE_SWEEP_DEFAULTS = {
   /** Whole periods the fit is made over, after the transient has died out. */
@@ -54,21 +56,6 @@ export interface SineSweepResult {
   channel: InputChannel;
   amplitude: number;
   points: MeasuredPoint[];
-}
-
-/** The path a sweep measures unless told: the reference in closed loop, the torque in open loop. */
-export function defaultSweepChannel(scenario: Scenario): InputChannel {
-  return scenario.controller.mode === 'pid' ? 'reference' : 'torque';
-}
-
-/**
- * The injected amplitude unless told: the largest amplitude among the scenario's own terms on
- * that channel (so the sweep moves the joint as its scenario does, limits and all), else 1.
- */
-export function defaultSweepAmplitude(scenario: Scenario, channel: InputChannel): number {
-  const own = scenario.inputs.filter((t) => t.channel === channel && t.shape !== 'impulse' && t.shape !== 'ramp').map((t) => Math.abs(t.amplitude));
-  const largest = Math.max(0, ...own);
-  return largest > 0 ? largest : 1;
 }
 
 /**

@@ -1,5 +1,6 @@
 import { z } from 'zod';
 import { MAX_FREQUENCY, MIN_FREQUENCY } from '../frequency/frequency-grid';
+import { catalogueEntry } from '../scenario/parameter-catalogue';
 import { scenarioSchema } from '../scenario/scenario-schema';
 
 // The checks API (POST /api/checks): the bench sends its current draft scenario, a worker thread
@@ -82,6 +83,8 @@ export interface CheckResponse {
 
 /** Most frequencies one measured sweep may hold over the API: each is a full twin run. */
 export const MAX_SWEEP_POINTS_API = 40;
+/** Largest injected amplitude, rad or N·m: the catalogue's bound on input amplitudes. */
+export const MAX_SWEEP_AMPLITUDE = catalogueEntry('inputs[].amplitude').max.value;
 
 const frequencyBound = (what: string) =>
   z
@@ -100,7 +103,7 @@ export const sineSweepRequestSchema = z
     /** Default: the reference in closed loop, the torque in open loop. */
     channel: z.enum(['reference', 'torque'], { error: 'channel must be "reference" or "torque"' }).optional(),
     /** Default: the largest amplitude of the scenario's own terms on the channel, else 1. */
-    amplitude: z.number({ error: 'amplitude must be a number' }).positive({ error: 'amplitude must be positive' }).max(1e9, { error: 'amplitude must be at most 1e9' }).optional(),
+    amplitude: z.number({ error: 'amplitude must be a number' }).positive({ error: 'amplitude must be positive' }).max(MAX_SWEEP_AMPLITUDE, { error: `amplitude must be at most ${MAX_SWEEP_AMPLITUDE}` }).optional(),
   })
   .refine((b) => (b.points === 1 ? b.to >= b.from : b.to > b.from), { path: ['to'], error: 'to must be above from (one point is measured at from)' });
 export type SineSweepRequest = z.input<typeof sineSweepRequestSchema>;

@@ -1,5 +1,6 @@
 import type { FrequencyGridRequest } from '@kinetwin/shared/frequency/frequency-grid';
-import { MAX_SWEEP_POINTS_API, type SineSweepRequest } from '@kinetwin/shared/protocol/check-api';
+import { defaultSweepAmplitude, defaultSweepChannel, largestOwnAmplitude } from '@kinetwin/shared/frequency/sweep-defaults';
+import { MAX_SWEEP_AMPLITUDE, MAX_SWEEP_POINTS_API, type SineSweepRequest } from '@kinetwin/shared/protocol/check-api';
 import type { InputChannel, Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { FieldError, Parsed } from '@kinetwin/shared/validation/field-errors';
 import { DECIMAL } from './scenario-draft';
@@ -8,8 +9,6 @@ import { formatQuantity } from './scenario-facts';
 /** The channel choice as the form holds it: the server's own default, or one named. */
 export type SweepChannelChoice = 'default' | InputChannel;
 
-/** Largest amplitude the sweep route accepts (shared/protocol/check-api.ts). */
-const MAX_SWEEP_AMPLITUDE = 1e9;
 
 /** The channel and amplitude a sweep will use for the form's choice, and the server's defaults in words for the labels. */
 export interface SweepDefaults {
@@ -35,25 +34,19 @@ export interface SweepPlan {
 
 const unitOf = (channel: InputChannel) => (channel === 'reference' ? 'rad' : 'N·m');
 
-/**
- * The channel and amplitude the server picks when the request names none, for the form's labels
- * only: the rule is defaultSweepChannel / defaultSweepAmplitude of shared/frequency/twin-sine-sweep.ts,
- * which the browser may not import (it pulls in the twin and its integrator), so it is restated
- * here and nothing computed from it is ever sent.
- */
+/** The channel and amplitude the server picks when the request names none, for the form's labels (the server's own rule, shared/frequency/sweep-defaults.ts). */
 export function sweepDefaultsOf(scenario: Scenario, choice: SweepChannelChoice): SweepDefaults {
   const closedLoop = scenario.controller.mode === 'pid';
-  const defaultChannel: InputChannel = closedLoop ? 'reference' : 'torque';
+  const defaultChannel: InputChannel = defaultSweepChannel(scenario);
   const channel = choice === 'default' ? defaultChannel : choice;
-  const own = scenario.inputs.filter((t) => t.channel === channel && t.shape !== 'impulse' && t.shape !== 'ramp').map((t) => Math.abs(t.amplitude));
-  const largest = Math.max(0, ...own);
-  const amplitude = largest > 0 ? largest : 1;
+  const largest = largestOwnAmplitude(scenario, channel);
+  const amplitude = defaultSweepAmplitude(scenario, channel);
   return {
     channel,
     amplitude,
     channelText: `${defaultChannel} (${closedLoop ? 'closed loop' : 'open loop'})`,
     amplitudeText:
-      largest > 0
+      largest !== null
         ? `${formatQuantity(amplitude, unitOf(channel))}, the largest of the scenario's ${channel} terms`
         : `1 ${unitOf(channel)}: the scenario has no ${channel} term to take it from`,
   };
