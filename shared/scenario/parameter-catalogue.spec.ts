@@ -2,7 +2,9 @@ import { describe, expect, it } from 'vitest';
 import { runStartSchema } from '../protocol/run-requests';
 import { parseWith } from '../validation/field-errors';
 import { parseScenario } from './parse-scenario';
-import { boundText, catalogueEntry, catalogueNumber, PARAMETER_CATALOGUE, parameterName, rangeViolation } from './parameter-catalogue';
+import { CHOICE_PARAMETERS, choiceText } from './choice-parameters';
+import { boundText, catalogueEntry, catalogueEntryAt, catalogueNumber, fieldLabel, PARAMETER_CATALOGUE, PARAMETER_GROUP_TITLES, parameterName, rangeViolation } from './parameter-catalogue';
+import { controllerSchema } from './scenario-schema';
 
 /**
  * A scenario that sets every catalogued scenario field, so each can be pushed out of range in turn.
@@ -144,6 +146,54 @@ describe('the parameter catalogue', () => {
         joint({ inertia: 1e6, damping: 1e5, stiffness: 1e9, gearRatio: 1e4 }, { kp: 1e8, ki: 1e9, kd: 1e7, samplePeriod: 0.01 }, { nonlinear: { torqueLimit: 1e7, gravity: { mass: 2e4, arm: 5 } } }),
       );
       expect(parsed.ok, JSON.stringify(parsed)).toBe(true);
+    });
+  });
+
+  describe('what the app reads from it', () => {
+    it('marks exactly the plant physics as fittable by calibration', () => {
+      const fittable = PARAMETER_CATALOGUE.filter((e) => e.fittable).map((e) => e.path);
+      expect(fittable).toEqual(['joint.inertia', 'joint.damping', 'joint.stiffness', 'nonlinear.coulombFriction', 'nonlinear.staticFriction']);
+    });
+
+    it('marks the tuning form’s numbers as editable, nothing of limits, twin effects or run settings', () => {
+      const editable = PARAMETER_CATALOGUE.filter((e) => e.editable);
+      expect(editable.map((e) => e.path)).toContain('controller.kd');
+      expect(editable.map((e) => e.path)).toContain('inputs[].rate');
+      expect(editable.map((e) => e.group)).not.toContain('limits');
+      expect(editable.map((e) => e.group)).not.toContain('nonlinear');
+      expect(catalogueEntry('controller.samplePeriod').editable).toBe(false);
+    });
+
+    it('groups by the path’s block, the horizon with the initial state', () => {
+      expect(catalogueEntry('horizon').group).toBe('initial');
+      expect(catalogueEntry('inputs[].delay').group).toBe('inputs');
+      expect(catalogueEntry('nonlinear.gravity.mass').group).toBe('nonlinear');
+      for (const e of PARAMETER_CATALOGUE) expect(PARAMETER_GROUP_TITLES[e.group]).toBeTruthy();
+    });
+
+    it('finds the entry of an actual input term’s path, and none for text or unknown fields', () => {
+      expect(catalogueEntryAt('inputs.12.amplitude')?.path).toBe('inputs[].amplitude');
+      expect(catalogueEntryAt('joint.inertia')?.symbol).toBe('J');
+      expect(catalogueEntryAt('controller.mode')).toBeUndefined();
+      expect(catalogueEntryAt('inputs.x.amplitude')).toBeUndefined();
+    });
+
+    it('labels a field with its words and symbol', () => {
+      expect(fieldLabel(catalogueEntry('joint.inertia'))).toBe('Inertia J');
+      expect(fieldLabel({ label: 'Derivative on', symbol: '' })).toBe('Derivative on');
+    });
+
+    it('offers for each choice parameter exactly the values the schema accepts', () => {
+      const controller = controllerSchema;
+      for (const choice of CHOICE_PARAMETERS) {
+        const key = choice.path.split('.')[1]!;
+        for (const value of Object.keys(choice.choices)) {
+          expect(controller.safeParse({ mode: 'pid', [key]: value }).success, `${choice.path} = ${value}`).toBe(true);
+        }
+        expect(controller.safeParse({ mode: 'pid', [key]: 'neither' }).success).toBe(false);
+      }
+      expect(choiceText('controller.mode', 'pid')).toBe('PID loop');
+      expect(choiceText('controller.mode', 'unknown')).toBe('unknown');
     });
   });
 });

@@ -1,0 +1,37 @@
+/**
+ * The scenario's text-valued parameters that forms edit, beside the numeric catalogue
+ * (parameter-catalogue.ts): path, label and the choices with the words shown for each. The
+ * choices are the schema's own enums (scenario-schema.ts); the spec checks they stay equal.
+ */
+
+export interface ChoiceParameter {
+  path: string;
+  /** Choice parameters have no symbol; "" keeps them usable where catalogue entries are. */
+  symbol: '';
+  label: string;
+  group: 'controller';
+  /** Stored value → words shown for it, in the order a select offers them. */
+  choices: Readonly<Record<string, string>>;
+  /** Whether the bench's tuning form edits it. */
+  editable: boolean;
+}
+
+export const CHOICE_PARAMETERS: readonly ChoiceParameter[] = [
+  { path: 'controller.mode', symbol: '', label: 'Controller', group: 'controller', choices: { pid: 'PID loop', 'open-loop': 'open loop' }, editable: true },
+  { path: 'controller.derivativeOn', symbol: '', label: 'Derivative on', group: 'controller', choices: { error: 'error', measurement: 'measurement' }, editable: true },
+];
+
+const byPath = new Map(CHOICE_PARAMETERS.map((c) => [c.path, c]));
+
+/** The choice parameter at a path, or undefined. */
+export function choiceParameterAt(path: string): ChoiceParameter | undefined {
+  return byPath.get(path);
+}
+
+/**
+ * The words for a stored choice; the stored value itself when the list has no words for it.
+ * @example choiceText('controller.mode', 'pid') // 'PID loop'
+ */
+export function choiceText(path: string, value: string): string {
+  return byPath.get(path)?.choices[value] ?? value;
+}
