@@ -66,6 +66,13 @@ describe('applyFieldEdits', () => {
     ]);
   });
 
+  it('reports a reference term left behind when the controller is switched to open loop', () => {
+    expect(applyFieldEdits(saved, { 'controller.mode': 'open-loop' })).toEqual({
+      ok: false,
+      errors: [{ field: 'inputs.0.channel', message: 'a reference input needs a closed loop (controller.mode "pid")' }],
+    });
+  });
+
   it('sets a nullable limit from its empty state', () => {
     const edited = applyFieldEdits(saved, { 'limits.settlingTime': '1.5' });
     expect(edited.ok && edited.value.limits.settlingTime).toBe(1.5);

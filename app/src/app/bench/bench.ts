@@ -32,7 +32,8 @@ import { SaveRevisionPanel } from './save-revision-panel';
 import { RunRecord, type SampleFlags, latestFlags } from './run-record';
 import { sampleReadings } from './run-sample-text';
 import { type RunStatus, isRunActive, isRunLive, runStatusText, statusOfRunEnd } from './run-status';
-import { type ScenarioEdits, editedScenario } from './scenario-draft';
+import { applyFieldEdits } from '@kinetwin/shared/scenario/field-edits';
+import type { ScenarioEdits } from './scenario-draft';
 import { describeInputTerm, formatQuantity, scenarioFacts } from './scenario-facts';
 import { type FieldEdit, TuningForm } from './tuning-form';
 
@@ -158,7 +159,7 @@ export class Bench {
   /** The stored scenario with the edits applied and validated; null before it loads. */
   protected readonly edited = computed(() => {
     const detail = this.scenario();
-    return detail ? editedScenario(detail.scenario, this.scenarioEdits()) : null;
+    return detail ? applyFieldEdits(detail.scenario, this.scenarioEdits()) : null;
   });
   protected readonly hasEdits = computed(() => Object.keys(this.scenarioEdits()).length > 0);
   protected readonly editErrors = computed(() => {

@@ -1,6 +1,6 @@
 import { DEFAULT_FREQUENCY_GRID, type FrequencyGridRequest, logFrequencies } from '@kinetwin/shared/frequency/frequency-grid';
 import type { FieldError, Parsed } from '@kinetwin/shared/validation/field-errors';
-import { DECIMAL } from './scenario-draft';
+import { DECIMAL } from '@kinetwin/shared/scenario/field-edits';
 
 /** The grid fields as typed on the frequency panel. */
 export interface GridTexts {

@@ -2,7 +2,7 @@ import { ChangeDetectionStrategy, Component, computed, input, output, signal } f
 import { MatButtonModule } from '@angular/material/button';
 import type { RunKickRequest } from '@kinetwin/shared/protocol/run-events';
 import type { FieldError } from '@kinetwin/shared/validation/field-errors';
-import { DECIMAL } from './scenario-draft';
+import { DECIMAL } from '@kinetwin/shared/scenario/field-edits';
 
 /** A kick as the bench asks the server for it. */
 export type KickRequest = RunKickRequest['kick'];

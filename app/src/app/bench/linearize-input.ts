@@ -1,6 +1,6 @@
 import type { HoldingMode } from '@kinetwin/shared/linearize/operating-point';
 import type { FieldError, Parsed } from '@kinetwin/shared/validation/field-errors';
-import { DECIMAL } from './scenario-draft';
+import { DECIMAL } from '@kinetwin/shared/scenario/field-edits';
 
 /** The unit θ0 is typed in. */
 export type AngleUnit = 'deg' | 'rad';

@@ -1,7 +1,7 @@
 import type { LocusGain, RootLocusRequest } from '@kinetwin/shared/frequency/root-locus';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { FieldError, Parsed } from '@kinetwin/shared/validation/field-errors';
-import { DECIMAL } from './scenario-draft';
+import { DECIMAL } from '@kinetwin/shared/scenario/field-edits';
 import { formatQuantity } from './scenario-facts';
 
 /** The locus fields as typed; a blank end takes its default from the draft's own gain. */

@@ -2,7 +2,8 @@ import type { RunStartRequest } from '@kinetwin/shared/protocol/run-events';
 import { parseScenario } from '@kinetwin/shared/scenario/parse-scenario';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { FieldError } from '@kinetwin/shared/validation/field-errors';
-import { type ScenarioEdits, editedScenario, samePlainData } from './scenario-draft';
+import { applyFieldEdits } from '@kinetwin/shared/scenario/field-edits';
+import { type ScenarioEdits, samePlainData } from './scenario-draft';
 
 /** The run request the bench sends, or the edits' errors when they cannot be run. */
 export type RunChoice =
@@ -23,7 +24,7 @@ export type RunChoice =
  */
 export function runChoice(scenarioId: number, saved: Scenario, edits: ScenarioEdits): RunChoice {
   if (Object.keys(edits).length === 0) return { ok: true, request: { scenarioId }, scenario: saved, inline: false };
-  const edited = editedScenario(saved, edits);
+  const edited = applyFieldEdits(saved, edits);
   if (!edited.ok) return edited;
   const stored = parseScenario(saved);
   if (stored.ok && samePlainData(stored.value, edited.value)) return { ok: true, request: { scenarioId }, scenario: saved, inline: false };

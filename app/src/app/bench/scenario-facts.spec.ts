@@ -1,3 +1,4 @@
+import { catalogueEntry, fieldLabel } from '@kinetwin/shared/scenario/parameter-catalogue';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import { describeInputTerm, formatQuantity, scenarioFacts } from './scenario-facts';
 
@@ -38,32 +39,45 @@ describe('describeInputTerm', () => {
   });
 
   it('adds the width, frequency or rate a shape needs', () => {
-    expect(describeInputTerm({ channel: 'torque', shape: 'pulse', amplitude: 1, delay: 0.2, width: 0.1 })).toBe('torque pulse 1 N·m at t = 0.2 s, width 0.1 s');
-    expect(describeInputTerm({ channel: 'reference', shape: 'sine', amplitude: 0.1, delay: 0, frequency: 6.283 })).toBe('reference sine 0.1 rad at t = 0 s, ω0 6.283 rad/s');
-    expect(describeInputTerm({ channel: 'torque', shape: 'decay', amplitude: 1, delay: 0, rate: 3 })).toBe('torque decay 1 N·m at t = 0 s, λ 3 1/s');
+    expect(describeInputTerm({ channel: 'torque', shape: 'pulse', amplitude: 1, delay: 0.2, width: 0.1 })).toBe('torque pulse 1 N·m at t = 0.2 s, pulse width w 0.1 s');
+    expect(describeInputTerm({ channel: 'reference', shape: 'sine', amplitude: 0.1, delay: 0, frequency: 6.283 })).toBe('reference sine 0.1 rad at t = 0 s, angular frequency ω 6.283 rad/s');
+    expect(describeInputTerm({ channel: 'torque', shape: 'decay', amplitude: 1, delay: 0, rate: 3 })).toBe('torque decay 1 N·m at t = 0 s, decay rate λ 3 1/s');
   });
 });
 
 describe('scenarioFacts', () => {
+  it('labels each fact from the shared catalogue', () => {
+    const labels = Object.fromEntries(scenarioFacts(scenario).map((f) => [f.key, f.label]));
+    expect(labels['joint.inertia']).toBe(fieldLabel(catalogueEntry('joint.inertia')));
+    expect(labels['controller.mode']).toBe('Controller');
+  });
+
+  it('shows an unfiltered derivative as none', () => {
+    const facts = scenarioFacts({ ...scenario, controller: { ...scenario.controller, derivativeFilter: 0 } });
+    expect(facts.find((f) => f.key === 'controller.derivativeFilter')?.value).toBe('none');
+  });
+
   it('lists the joint, the PID gains and the run quantities', () => {
     const facts = Object.fromEntries(scenarioFacts(scenario).map((f) => [f.key, f.value]));
     expect(facts).toMatchObject({
-      J: '0.02 kg·m²',
-      b: '0.1 N·m·s/rad',
-      k: '0 N·m/rad',
-      N: '50',
-      mode: 'PID loop',
-      kp: '1.5 N·m/rad',
-      kd: '0.08 N·m·s/rad',
-      derivativeOn: 'measurement',
-      Tf: '0.005 s',
+      'joint.inertia': '0.02 kg·m²',
+      'joint.damping': '0.1 N·m·s/rad',
+      'joint.stiffness': '0 N·m/rad',
+      'joint.gearRatio': '50',
+      'controller.mode': 'PID loop',
+      'controller.kp': '1.5 N·m/rad',
+      'controller.kd': '0.08 N·m·s/rad',
+      'controller.derivativeOn': 'measurement',
+      'controller.derivativeFilter': '0.005 s',
+      'initial.angle': '0 rad',
       horizon: '2 s',
     });
   });
 
   it('leaves the gains out for an open loop', () => {
     const keys = scenarioFacts({ ...scenario, controller: { ...scenario.controller, mode: 'open-loop' } }).map((f) => f.key);
-    expect(keys).not.toContain('kp');
-    expect(keys).toContain('mode');
+    expect(keys).not.toContain('controller.kp');
+    expect(keys).not.toContain('controller.derivativeOn');
+    expect(keys).toContain('controller.mode');
   });
 });

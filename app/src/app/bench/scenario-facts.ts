@@ -1,8 +1,13 @@
+import { choiceText } from '@kinetwin/shared/scenario/choice-parameters';
+import { valueAtPath } from '@kinetwin/shared/scenario/field-edits';
+import { catalogueEntry, fieldLabel } from '@kinetwin/shared/scenario/parameter-catalogue';
 import type { InputTerm, Scenario } from '@kinetwin/shared/scenario/scenario-schema';
+import { amplitudeUnit, extraTermKey } from '@kinetwin/shared/scenario/term-units';
+import { type TuningField, tuningGroups } from './tuning-fields';
 
 /** One labelled quantity on the bench's scenario panel. */
 export interface ScenarioFact {
-  /** Stable key for `track`. */
+  /** Stable key for `track`: the parameter's dotted path. */
   key: string;
   label: string;
   value: string;
@@ -19,53 +24,40 @@ export function formatQuantity(value: number, unit = ''): string {
   return unit ? `${text} ${unit}` : text;
 }
 
-/** The unit of a term's amplitude: rad or N·m, per second for a ramp, N·m·s for an impulse. */
-function amplitudeUnit(term: InputTerm): string {
-  const base = term.channel === 'reference' ? 'rad' : 'N·m';
-  if (term.shape === 'impulse') return 'N·m·s';
-  if (term.shape === 'ramp') return `${base}/s`;
-  return base;
-}
+/** A term field in words: the catalogue's label with its symbol, e.g. "Pulse width w". */
+const termFieldText = (key: string) => fieldLabel(catalogueEntry(`inputs[].${key}`)).replace(/^./, (c) => c.toLowerCase());
 
 /**
- * One forcing term in words.
+ * One forcing term in words, units from the shared catalogue and amplitudeUnit.
  * @example describeInputTerm({ channel: 'reference', shape: 'step', amplitude: 0.5, delay: 0 }) // "reference step 0.5 rad at t = 0 s"
  */
 export function describeInputTerm(term: InputTerm): string {
-  const parts = [`${term.channel} ${term.shape} ${formatQuantity(term.amplitude, amplitudeUnit(term))} at t = ${formatQuantity(term.delay, 's')}`];
-  if (term.shape === 'pulse' && term.width !== undefined) parts.push(`width ${formatQuantity(term.width, 's')}`);
-  if ((term.shape === 'sine' || term.shape === 'cosine') && term.frequency !== undefined) parts.push(`ω0 ${formatQuantity(term.frequency, 'rad/s')}`);
-  if (term.shape === 'decay' && term.rate !== undefined) parts.push(`λ ${formatQuantity(term.rate, '1/s')}`);
+  const parts = [`${term.channel} ${term.shape} ${formatQuantity(term.amplitude, amplitudeUnit(term.channel, term.shape))} at t = ${formatQuantity(term.delay, 's')}`];
+  const extra = extraTermKey(term.shape);
+  const value = extra === null ? undefined : term[extra];
+  if (extra !== null && value !== undefined) parts.push(`${termFieldText(extra)} ${formatQuantity(value, catalogueEntry(`inputs[].${extra}`).unit)}`);
   return parts.join(', ');
 }
 
-/** The joint, controller and run quantities the bench shows beside the twin. */
+/**
+ * The joint, controller and run quantities the bench shows beside the twin: the tuning form's
+ * fields outside the input terms (labels and units from the shared catalogue), choices in words;
+ * an open loop shows its mode only, since it has no gains.
+ */
 export function scenarioFacts(scenario: Scenario): ScenarioFact[] {
-  const { joint, controller } = scenario;
-  const facts: ScenarioFact[] = [
-    { key: 'J', label: 'Inertia J', value: formatQuantity(joint.inertia, 'kg·m²') },
-    { key: 'b', label: 'Damping b', value: formatQuantity(joint.damping, 'N·m·s/rad') },
-    { key: 'k', label: 'Stiffness k', value: formatQuantity(joint.stiffness, 'N·m/rad') },
-    { key: 'N', label: 'Gear ratio N', value: formatQuantity(joint.gearRatio) },
-    { key: 'mode', label: 'Controller', value: controller.mode === 'pid' ? 'PID loop' : 'open loop' },
-  ];
-  if (controller.mode === 'pid') {
-    facts.push(
-      { key: 'kp', label: 'kp', value: formatQuantity(controller.kp, 'N·m/rad') },
-      { key: 'ki', label: 'ki', value: formatQuantity(controller.ki, 'N·m/(rad·s)') },
-      { key: 'kd', label: 'kd', value: formatQuantity(controller.kd, 'N·m·s/rad') },
-      { key: 'derivativeOn', label: 'Derivative on', value: controller.derivativeOn },
-      {
-        key: 'Tf',
-        label: 'Derivative filter Tf',
-        value: controller.derivativeFilter === 0 ? 'none' : formatQuantity(controller.derivativeFilter, 's'),
-      },
-    );
-  }
-  facts.push(
-    { key: 'theta0', label: 'Initial angle', value: formatQuantity(scenario.initial.angle, 'rad') },
-    { key: 'omega0', label: 'Initial velocity', value: formatQuantity(scenario.initial.velocity, 'rad/s') },
-    { key: 'horizon', label: 'Horizon', value: formatQuantity(scenario.horizon, 's') },
-  );
-  return facts;
+  const openLoop = scenario.controller.mode === 'open-loop';
+  return tuningGroups(scenario)
+    .filter((group) => !group.key.startsWith('inputs'))
+    .flatMap((group) => group.fields)
+    .filter((field) => !(openLoop && field.path.startsWith('controller.') && field.path !== 'controller.mode'))
+    .map((field) => ({ key: field.path, label: field.label, value: factValue(scenario, field) }));
+}
+
+function factValue(scenario: Scenario, field: TuningField): string {
+  const value = valueAtPath(scenario, field.path);
+  if (typeof value === 'string') return choiceText(field.path, value);
+  if (typeof value !== 'number') return '—';
+  // A derivative filter of 0 s means the derivative is unfiltered (the catalogue's lower bound).
+  if (field.path === 'controller.derivativeFilter' && value === 0) return 'none';
+  return formatQuantity(value, field.unit);
 }

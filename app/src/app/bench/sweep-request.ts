@@ -3,7 +3,7 @@ import { defaultSweepAmplitude, defaultSweepChannel, largestOwnAmplitude } from 
 import { MAX_SWEEP_AMPLITUDE, MAX_SWEEP_POINTS_API, type SineSweepRequest } from '@kinetwin/shared/protocol/check-api';
 import type { InputChannel, Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { FieldError, Parsed } from '@kinetwin/shared/validation/field-errors';
-import { DECIMAL } from './scenario-draft';
+import { DECIMAL } from '@kinetwin/shared/scenario/field-edits';
 import { formatQuantity } from './scenario-facts';
 
 /** The channel choice as the form holds it: the server's own default, or one named. */

@@ -1,4 +1,7 @@
+import { CHOICE_PARAMETERS } from '@kinetwin/shared/scenario/choice-parameters';
+import { type CatalogueEntry, type ParameterGroup, catalogueEntry, fieldLabel, PARAMETER_CATALOGUE, PARAMETER_GROUP_TITLES } from '@kinetwin/shared/scenario/parameter-catalogue';
 import type { InputTerm, Scenario } from '@kinetwin/shared/scenario/scenario-schema';
+import { amplitudeUnit, termKeys } from '@kinetwin/shared/scenario/term-units';
 
 /** One editable quantity of the scenario, named by its dotted path. */
 export interface TuningField {
@@ -6,8 +9,8 @@ export interface TuningField {
   path: string;
   label: string;
   unit: string;
-  /** Choices for a text field (a select); absent for a number. */
-  choices?: readonly string[];
+  /** Choices for a text field (a select), stored value and the words shown; absent for a number. */
+  choices?: readonly { value: string; text: string }[];
 }
 
 /** Fields shown together under one heading. */
@@ -17,61 +20,44 @@ export interface TuningGroup {
   fields: TuningField[];
 }
 
-function termUnit(term: InputTerm): string {
-  if (term.shape === 'impulse') return 'N·m·s';
-  const base = term.channel === 'reference' ? 'rad' : 'N·m';
-  return term.shape === 'ramp' ? `${base}/s` : base;
+/** The catalogue's groups the form shows before the input terms, in the catalogue's order. */
+const SCENARIO_GROUPS: readonly ParameterGroup[] = ['joint', 'controller', 'initial'];
+
+const numberField = (e: CatalogueEntry, path = e.path, unit = e.unit): TuningField => ({ path, label: fieldLabel(e), unit });
+
+/**
+ * A group's editable fields, choices and numbers in catalogue order; the choice parameters come
+ * first in their group (mode decides what the gains mean) except derivative-on, which sits after kd.
+ */
+function groupFields(group: ParameterGroup): TuningField[] {
+  const numbers = PARAMETER_CATALOGUE.filter((e) => e.editable && e.group === group).map((e) => numberField(e));
+  const choices = CHOICE_PARAMETERS.filter((c) => c.editable && c.group === group).map((c) => ({
+    path: c.path,
+    label: fieldLabel(c),
+    unit: '',
+    choices: Object.entries(c.choices).map(([value, text]) => ({ value, text })),
+  }));
+  const [mode, ...rest] = choices;
+  if (!mode) return numbers;
+  const kd = numbers.findIndex((f) => f.path === 'controller.kd');
+  return [mode, ...numbers.slice(0, kd + 1), ...rest, ...numbers.slice(kd + 1)];
 }
 
 function termFields(term: InputTerm, index: number): TuningField[] {
-  const at = (key: string) => `inputs.${index}.${key}`;
-  const fields: TuningField[] = [
-    { path: at('amplitude'), label: 'Amplitude A', unit: termUnit(term) },
-    { path: at('delay'), label: 'Delay a', unit: 's' },
-  ];
-  if (term.shape === 'pulse') fields.push({ path: at('width'), label: 'Width w', unit: 's' });
-  if (term.shape === 'sine' || term.shape === 'cosine') fields.push({ path: at('frequency'), label: 'Frequency ω0', unit: 'rad/s' });
-  if (term.shape === 'decay') fields.push({ path: at('rate'), label: 'Rate λ', unit: '1/s' });
-  return fields;
+  return termKeys(term).map((key) => {
+    const e = catalogueEntry(`inputs[].${key}`);
+    return numberField(e, `inputs.${index}.${key}`, key === 'amplitude' ? amplitudeUnit(term.channel, term.shape) : e.unit);
+  });
 }
 
 /**
- * The tuning form's fields for a scenario: joint, controller, initial state and horizon, then
- * each forcing term's amplitude and delay with the extra quantity its shape has.
+ * The tuning form's fields for a scenario, labels and units from the shared catalogue: joint,
+ * controller, initial state and horizon, then each forcing term's amplitude and start time with
+ * the extra quantity its shape has.
  */
 export function tuningGroups(scenario: Scenario): TuningGroup[] {
   return [
-    {
-      key: 'joint',
-      title: 'Joint',
-      fields: [
-        { path: 'joint.inertia', label: 'Inertia J', unit: 'kg·m²' },
-        { path: 'joint.damping', label: 'Damping b', unit: 'N·m·s/rad' },
-        { path: 'joint.stiffness', label: 'Stiffness k', unit: 'N·m/rad' },
-        { path: 'joint.gearRatio', label: 'Gear ratio N', unit: '' },
-      ],
-    },
-    {
-      key: 'controller',
-      title: 'Controller',
-      fields: [
-        { path: 'controller.mode', label: 'Mode', unit: '', choices: ['pid', 'open-loop'] },
-        { path: 'controller.kp', label: 'kp', unit: 'N·m/rad' },
-        { path: 'controller.ki', label: 'ki', unit: 'N·m/(rad·s)' },
-        { path: 'controller.kd', label: 'kd', unit: 'N·m·s/rad' },
-        { path: 'controller.derivativeOn', label: 'Derivative on', unit: '', choices: ['error', 'measurement'] },
-        { path: 'controller.derivativeFilter', label: 'Derivative filter Tf', unit: 's' },
-      ],
-    },
-    {
-      key: 'run',
-      title: 'Initial state and horizon',
-      fields: [
-        { path: 'initial.angle', label: 'θ(0−)', unit: 'rad' },
-        { path: 'initial.velocity', label: "θ'(0−)", unit: 'rad/s' },
-        { path: 'horizon', label: 'Horizon', unit: 's' },
-      ],
-    },
+    ...SCENARIO_GROUPS.map((group) => ({ key: group, title: PARAMETER_GROUP_TITLES[group], fields: groupFields(group) })),
     ...scenario.inputs.map((term, index) => ({
       key: `inputs.${index}`,
       title: `Term ${index}: ${term.channel} ${term.shape}`,

@@ -1,6 +1,6 @@
 import { type ComponentFixture, TestBed } from '@angular/core/testing';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
-import { editedScenario } from './scenario-draft';
+import { applyFieldEdits } from '@kinetwin/shared/scenario/field-edits';
 import { type FieldEdit, TuningForm } from './tuning-form';
 
 // Invented demo values.
@@ -33,7 +33,7 @@ describe('TuningForm', () => {
 
   /** Shows the form as the bench would for these edits: validated by the shared schema. */
   async function showEdits(current: Record<string, string>): Promise<void> {
-    const edited = editedScenario(saved, current);
+    const edited = applyFieldEdits(saved, current);
     fixture.componentRef.setInput('edits', current);
     fixture.componentRef.setInput('errors', edited.ok ? [] : edited.errors);
     await fixture.whenStable();

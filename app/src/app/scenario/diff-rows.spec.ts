@@ -1,5 +1,8 @@
 import type { ScenarioChange } from '@kinetwin/shared/library/scenario-diff';
+import { catalogueEntry, fieldLabel } from '@kinetwin/shared/scenario/parameter-catalogue';
 import { diffSectionRows, formatDiffValue } from './diff-rows';
+
+const label = (path: string) => fieldLabel(catalogueEntry(path));
 
 describe('diffSectionRows', () => {
   const changes: ScenarioChange[] = [
@@ -18,10 +21,10 @@ describe('diffSectionRows', () => {
     const rows = diffSectionRows(changes).flatMap((group) => group.rows);
     expect(rows.map((row) => [row.label, row.before, row.after, row.unit, row.kind])).toEqual([
       ['Name', '“Gantry”', '“Gantry tuned”', '', 'changed'],
-      ['kp', '4', '6.5', 'N·m/rad', 'changed'],
-      ['term 2 · amplitude', '-1', '-2', '', 'changed'],
-      ['term 3 · delay', '—', '0.4', 's', 'added'],
-      ['settlingTime', '—', '1.2', 's', 'changed'],
+      [label('controller.kp'), '4', '6.5', 'N·m/rad', 'changed'],
+      [`term 2 · ${label('inputs[].amplitude')}`, '-1', '-2', '', 'changed'],
+      [`term 3 · ${label('inputs[].delay')}`, '—', '0.4', 's', 'added'],
+      [label('limits.settlingTime'), '—', '1.2', 's', 'changed'],
     ]);
   });
 
@@ -30,6 +33,14 @@ describe('diffSectionRows', () => {
     expect(formatDiffValue(1e-12)).toBe('1e-12');
     expect(formatDiffValue('')).toBe('“”');
     expect(formatDiffValue(false)).toBe('false');
+  });
+
+  it('labels a choice parameter from its list and a whole added term by its number', () => {
+    const rows = diffSectionRows([
+      { section: 'controller', path: 'controller.mode', kind: 'changed', before: 'pid', after: 'open-loop' },
+      { section: 'inputs', path: 'inputs.0.channel', kind: 'changed', before: 'reference', after: 'torque' },
+    ]).flatMap((group) => group.rows);
+    expect(rows.map((row) => row.label)).toEqual(['Controller', 'term 1 · channel']);
   });
 
   it('gives no sections for two identical revisions', () => {

@@ -1,3 +1,5 @@
+import { choiceParameterAt } from '@kinetwin/shared/scenario/choice-parameters';
+import { catalogueEntryAt, fieldLabel } from '@kinetwin/shared/scenario/parameter-catalogue';
 import type { DiffSection, DiffValue, ScenarioChange } from '@kinetwin/shared/library/scenario-diff';
 
 /** Headings of the diff's sections, in the order an engineer reads a scenario. */
@@ -12,31 +14,6 @@ export const SECTION_LABELS: Record<DiffSection, string> = {
   limits: 'Limits',
   nonlinear: 'Twin effects',
 };
-
-/** SI units of the scenario's numeric leaves (README, "Scenario files"); absent means none. */
-const UNITS: Record<string, string> = {
-  'joint.inertia': 'kg·m²',
-  'joint.damping': 'N·m·s/rad',
-  'joint.stiffness': 'N·m/rad',
-  'controller.kp': 'N·m/rad',
-  'controller.ki': 'N·m/(rad·s)',
-  'controller.kd': 'N·m·s/rad',
-  'controller.derivativeFilter': 's',
-  'controller.samplePeriod': 's',
-  'initial.angle': 'rad',
-  'initial.velocity': 'rad/s',
-  horizon: 's',
-  'limits.overshootPercent': '%',
-  'limits.settlingTime': 's',
-  'limits.steadyStateError': 'rad',
-  'nonlinear.torqueLimit': 'N·m',
-  'nonlinear.coulombFriction': 'N·m',
-  'nonlinear.staticFriction': 'N·m',
-  'nonlinear.deadBand': 'N·m',
-  'nonlinear.noiseStdDev': 'rad',
-};
-
-const TERM_UNITS: Record<string, string> = { delay: 's', width: 's', frequency: 'rad/s', rate: '1/s' };
 
 /** One changed parameter as the diff table shows it. */
 export interface DiffRow {
@@ -66,19 +43,30 @@ export function formatDiffValue(value: DiffValue): string {
   return String(value);
 }
 
+/** A leaf's words: the catalogue's label and symbol, a choice parameter's label, else its key path. */
+function leafLabel(path: string, rest: readonly string[]): string {
+  const known = catalogueEntryAt(path) ?? choiceParameterAt(path);
+  return known ? fieldLabel(known) : rest.join(' · ');
+}
+
 function rowLabel(change: ScenarioChange): string {
   const rest = change.path.split('.').slice(1);
   if (rest.length === 0) return SECTION_LABELS[change.section];
   if (change.section === 'inputs') {
     const [index, ...field] = rest;
-    return [`term ${Number(index) + 1}`, ...field].join(' · ');
+    const term = `term ${Number(index) + 1}`;
+    return field.length === 0 ? term : `${term} · ${leafLabel(change.path, field)}`;
   }
-  return rest.join(' · ');
+  return leafLabel(change.path, rest);
 }
 
+/**
+ * The catalogue's unit; none for an amplitude, whose unit follows the term's channel and shape,
+ * which may differ between the two revisions.
+ */
 function unitOf(change: ScenarioChange): string {
-  if (change.section === 'inputs') return TERM_UNITS[change.path.split('.').at(-1) ?? ''] ?? '';
-  return UNITS[change.path] ?? '';
+  const e = catalogueEntryAt(change.path);
+  return !e || e.path === 'inputs[].amplitude' ? '' : e.unit;
 }
 
 /**

@@ -9,7 +9,8 @@ import type { FieldError } from '@kinetwin/shared/validation/field-errors';
 import { firstValueFrom } from 'rxjs';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error-message';
 import { LibraryApi } from '../core/library-api';
-import { EDITABLE_PARAMETERS, type ParameterEdits, applyParameterEdits, effectiveEdits, parameterValue } from './parameter-edits';
+import { type FieldEdits, applyFieldEdits, effectiveFieldEdits, fieldValueText } from '@kinetwin/shared/scenario/field-edits';
+import { EDITABLE_PARAMETERS } from './parameter-edits';
 import { copyName, staleSaveOf } from './stale-save';
 
 /** The revision an edit starts from: its number (sent as baseRevision) and its document. */
@@ -46,7 +47,7 @@ export class RevisionEditor {
   protected readonly maxNote = MAX_REVISION_NOTE_LENGTH;
 
   private readonly editBase = signal<EditBase | null>(null);
-  private readonly editTexts = signal<ParameterEdits>({});
+  private readonly editTexts = signal<FieldEdits>({});
   protected readonly edits = this.editTexts.asReadonly();
   private readonly noteText = signal('');
   protected readonly note = this.noteText.asReadonly();
@@ -63,12 +64,12 @@ export class RevisionEditor {
   protected readonly base = this.editBase.asReadonly();
   private readonly pending = computed(() => {
     const base = this.editBase();
-    return base ? effectiveEdits(base.scenario, this.editTexts()) : {};
+    return base ? effectiveFieldEdits(base.scenario, this.editTexts()) : {};
   });
   protected readonly changed = computed(() => Object.keys(this.pending()).length > 0);
   private readonly result = computed(() => {
     const base = this.editBase();
-    return base ? applyParameterEdits(base.scenario, this.pending()) : null;
+    return base ? applyFieldEdits(base.scenario, this.pending()) : null;
   });
   protected readonly errors = computed((): FieldError[] => {
     const result = this.result();
@@ -99,8 +100,7 @@ export class RevisionEditor {
     const edit = this.editTexts()[path];
     if (edit !== undefined) return edit;
     const base = this.editBase();
-    const value = base ? parameterValue(base.scenario, path) : undefined;
-    return value === undefined ? '' : String(value);
+    return base ? fieldValueText(base.scenario, path) : '';
   }
 
   protected errorOf(path: string): string | null {

@@ -21,6 +21,7 @@ import { activityText } from './activity-text';
 import { CommentThread } from './comment-thread';
 import { HandOffDialog } from './hand-off-dialog';
 import { RevisionDiffView } from './revision-diff-view';
+import { readOnlyFacts } from './read-only-facts';
 import { RevisionEditor } from './revision-editor';
 import { scenarioControls } from './scenario-controls';
 import { SignOffDialog } from './sign-off-dialog';
@@ -33,28 +34,6 @@ export const ACTIVITY_PAGE_SIZE = 20;
 interface ComparePair {
   from: number;
   to: number;
-}
-
-/** Parameters the read-only view lists, with units (README, "Scenario files"). */
-const READ_ONLY_FACTS: readonly { path: string; label: string; unit: string }[] = [
-  { path: 'joint.inertia', label: 'Inertia J', unit: 'kg·m²' },
-  { path: 'joint.damping', label: 'Damping b', unit: 'N·m·s/rad' },
-  { path: 'joint.stiffness', label: 'Stiffness k', unit: 'N·m/rad' },
-  { path: 'joint.gearRatio', label: 'Gear ratio N', unit: '' },
-  { path: 'controller.mode', label: 'Controller', unit: '' },
-  { path: 'controller.kp', label: 'kp', unit: 'N·m/rad' },
-  { path: 'controller.ki', label: 'ki', unit: 'N·m/(rad·s)' },
-  { path: 'controller.kd', label: 'kd', unit: 'N·m·s/rad' },
-  { path: 'controller.derivativeFilter', label: 'Derivative filter Tf', unit: 's' },
-  { path: 'initial.angle', label: 'θ(0−)', unit: 'rad' },
-  { path: 'initial.velocity', label: "θ'(0−)", unit: 'rad/s' },
-  { path: 'horizon', label: 'Horizon', unit: 's' },
-];
-
-function leaf(data: unknown, path: string): string {
-  let node = data;
-  for (const key of path.split('.')) node = node !== null && typeof node === 'object' ? (node as Record<string, unknown>)[key] : undefined;
-  return node === undefined || node === null ? '—' : String(node);
 }
 
 /**
@@ -212,7 +191,7 @@ export class ScenarioPage {
   });
   protected readonly facts = computed(() => {
     const revision = this.viewedRevision();
-    return revision ? READ_ONLY_FACTS.map((fact) => ({ ...fact, value: leaf(revision.scenario, fact.path) })) : [];
+    return revision ? readOnlyFacts(revision.scenario) : [];
   });
   protected readonly inputTerms = computed(() => this.viewedRevision()?.scenario.inputs ?? []);
   protected readonly nameText = computed(() => this.nameDraft() ?? this.detail()?.name ?? '');
