@@ -2,6 +2,7 @@ import type { LocusGain, RootLocusRequest } from '@kinetwin/shared/frequency/roo
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { FieldError, Parsed } from '@kinetwin/shared/validation/field-errors';
 import { DECIMAL } from '@kinetwin/shared/scenario/field-edits';
+import { catalogueEntry } from '@kinetwin/shared/scenario/parameter-catalogue';
 import { formatQuantity } from './scenario-facts';
 
 /** The locus fields as typed; a blank end takes its default from the draft's own gain. */
@@ -17,8 +18,12 @@ export type LocusField = 'from' | 'to' | 'points';
 
 export const DEFAULT_LOCUS_TEXTS: LocusTexts = { gain: 'kp', from: '', to: '', points: '200', spacing: 'linear' };
 
-/** Units of each gain as the tuning form gives them. */
-export const GAIN_UNITS: Record<LocusGain, string> = { kp: 'N·m/rad', ki: 'N·m/(rad·s)', kd: 'N·m·s/rad' };
+/** Units of each gain, from the shared catalogue as the tuning form gives them. */
+export const GAIN_UNITS: Record<LocusGain, string> = {
+  kp: catalogueEntry('controller.kp').unit,
+  ki: catalogueEntry('controller.ki').unit,
+  kd: catalogueEntry('controller.kd').unit,
+};
 
 /** How many times the current gain the range reaches by default. */
 const DEFAULT_SPAN = 3;
