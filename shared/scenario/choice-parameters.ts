@@ -14,11 +14,13 @@ export interface ChoiceParameter {
   choices: Readonly<Record<string, string>>;
   /** Whether the bench's tuning form edits it. */
   editable: boolean;
+  /** The catalogue path it follows in forms; null to head its group (the mode decides what the gains mean). */
+  after: string | null;
 }
 
 export const CHOICE_PARAMETERS: readonly ChoiceParameter[] = [
-  { path: 'controller.mode', symbol: '', label: 'Controller', group: 'controller', choices: { pid: 'PID loop', 'open-loop': 'open loop' }, editable: true },
-  { path: 'controller.derivativeOn', symbol: '', label: 'Derivative on', group: 'controller', choices: { error: 'error', measurement: 'measurement' }, editable: true },
+  { path: 'controller.mode', symbol: '', label: 'Controller', group: 'controller', choices: { pid: 'PID loop', 'open-loop': 'open loop' }, editable: true, after: null },
+  { path: 'controller.derivativeOn', symbol: '', label: 'Derivative on', group: 'controller', choices: { error: 'error', measurement: 'measurement' }, editable: true, after: 'controller.kd' },
 ];
 
 const byPath = new Map(CHOICE_PARAMETERS.map((c) => [c.path, c]));

@@ -192,6 +192,7 @@ describe('the parameter catalogue', () => {
         }
         expect(controller.safeParse({ mode: 'pid', [key]: 'neither' }).success).toBe(false);
       }
+      for (const choice of CHOICE_PARAMETERS) if (choice.after !== null) expect(catalogueEntry(choice.after).group).toBe(choice.group);
       expect(choiceText('controller.mode', 'pid')).toBe('PID loop');
       expect(choiceText('controller.mode', 'unknown')).toBe('unknown');
     });

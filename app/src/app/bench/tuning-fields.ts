@@ -25,22 +25,14 @@ const SCENARIO_GROUPS: readonly ParameterGroup[] = ['joint', 'controller', 'init
 
 const numberField = (e: CatalogueEntry, path = e.path, unit = e.unit): TuningField => ({ path, label: fieldLabel(e), unit });
 
-/**
- * A group's editable fields, choices and numbers in catalogue order; the choice parameters come
- * first in their group (mode decides what the gains mean) except derivative-on, which sits after kd.
- */
+/** A group's editable fields in catalogue order, each choice parameter where its `after` puts it. */
 function groupFields(group: ParameterGroup): TuningField[] {
-  const numbers = PARAMETER_CATALOGUE.filter((e) => e.editable && e.group === group).map((e) => numberField(e));
-  const choices = CHOICE_PARAMETERS.filter((c) => c.editable && c.group === group).map((c) => ({
-    path: c.path,
-    label: fieldLabel(c),
-    unit: '',
-    choices: Object.entries(c.choices).map(([value, text]) => ({ value, text })),
-  }));
-  const [mode, ...rest] = choices;
-  if (!mode) return numbers;
-  const kd = numbers.findIndex((f) => f.path === 'controller.kd');
-  return [mode, ...numbers.slice(0, kd + 1), ...rest, ...numbers.slice(kd + 1)];
+  const fields = PARAMETER_CATALOGUE.filter((e) => e.editable && e.group === group).map((e) => numberField(e));
+  for (const c of CHOICE_PARAMETERS.filter((c) => c.editable && c.group === group)) {
+    const field = { path: c.path, label: fieldLabel(c), unit: '', choices: Object.entries(c.choices).map(([value, text]) => ({ value, text })) };
+    fields.splice(c.after === null ? 0 : fields.findIndex((f) => f.path === c.after) + 1, 0, field);
+  }
+  return fields;
 }
 
 function termFields(term: InputTerm, index: number): TuningField[] {
