@@ -180,6 +180,8 @@ describe('the parameter catalogue', () => {
 
     it('labels a field with its words and symbol', () => {
       expect(fieldLabel(catalogueEntry('joint.inertia'))).toBe('Inertia J');
+      expect(fieldLabel(catalogueEntry('controller.kp'))).toBe('Proportional gain kp');
+      expect(fieldLabel(catalogueEntry('controller.derivativeFilter'))).toBe('Derivative filter Tf');
       expect(fieldLabel({ label: 'Derivative on', symbol: '' })).toBe('Derivative on');
     });
 

@@ -160,9 +160,13 @@ export function catalogueEntryAt(path: string): CatalogueEntry | undefined {
   return byPath.get(path.replace(/^inputs\.\d+\./, 'inputs[].'));
 }
 
-/** The label a form or table shows: the words, then the symbol, e.g. "Inertia J". */
+/**
+ * The label a form or table shows: the words, then the symbol as plain text reads it (the
+ * catalogue's "k_p" is the README's and LaTeX's subscript; on a form it reads "kp").
+ * @example fieldLabel(catalogueEntry('controller.kp')) // "Proportional gain kp"
+ */
 export function fieldLabel(e: { label: string; symbol: string }): string {
-  return e.symbol ? `${e.label} ${e.symbol}` : e.label;
+  return e.symbol ? `${e.label} ${e.symbol.replace(/_/g, '')}` : e.label;
 }
 
 /** The name a message uses: the path without its block, e.g. "kd", "gravity.mass", "width". */

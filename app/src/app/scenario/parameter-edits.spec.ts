@@ -17,6 +17,6 @@ describe('EDITABLE_PARAMETERS', () => {
       'horizon',
     ]);
     const kd = EDITABLE_PARAMETERS.find((p) => p.path === 'controller.kd')!;
-    expect(kd).toEqual({ path: 'controller.kd', label: `${catalogueEntry('controller.kd').label} k_d`, unit: 'N·m·s/rad' });
+    expect(kd).toEqual({ path: 'controller.kd', label: `${catalogueEntry('controller.kd').label} kd`, unit: 'N·m·s/rad' });
   });
 });
