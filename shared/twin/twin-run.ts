@@ -20,170 +20,15 @@ import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcin
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
 import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
+import { effectOnsets, twinEffects, type EffectOnset } from './effect-onsets';
 import { twinScenarioErrors } from './twin-scenario-errors';
+import { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions } from './twin-settings';
+import type { KickTerm, TwinRun, TwinStop, TwinTrace } from './twin-types';
 
-/** Defaults of a twin run; the README's configuration table quotes these. */
-export const TWIN_DEFAULTS: TwinSettings = {
-  /** Output sample spacing, s. */
-  dt: 0.001,
-  /** odex relative and absolute tolerances. */
-  relativeTolerance: 1e-10,
-  absoluteTolerance: 1e-10,
-  /**
-   * Longest stretch integrated in one odex call, s. Each restart costs odex its start-up work
-   * (a quarter-second chunk made a 10 s run about a third slower than 1 s chunks when measured);
-   * live runs pass a short one so a kick lands close to what is on screen.
-   */
-  maxChunk: 1,
-  /** A run stops when |angle| exceeds this, rad (a runaway joint, not a real move). */
-  angleBound: 1e6,
-  /** A run stops when |velocity| exceeds this, rad/s. */
-  velocityBound: 1e7,
-  /** odex step budget per chunk; exhausting it means the scenario is too stiff for this integrator. */
-  maxStepsPerChunk: 20000,
-  /** Most stick/slip switches in one run; more means the friction model is being driven in circles. */
-  maxFrictionEvents: 100000,
-  /**
-   * The work budget, in right-hand-side and event-function evaluations: by simulated time t a
-   * run may have spent workBase + workPerSecond × t + workPerSample × (output and controller
-   * samples reached). Paced rather than totalled, so a scenario that grinds is stopped early
-   * instead of at its horizon. The parameter catalogue refuses impossible values; this bounds
-   * stiff combinations of possible ones. Sized from measurements (freeze-readme): the demo
-   * scenarios spend under 1 % of workBase, a 10 s 1 ms sampled loop with every effect ~4.4 per sample.
-   */
-  workBase: 1_000_000,
-  workPerSecond: 100_000,
-  workPerSample: 20,
-};
-
-/** Numerical settings of a twin run; TWIN_DEFAULTS documents each. */
-export interface TwinSettings {
-  dt: number;
-  relativeTolerance: number;
-  absoluteTolerance: number;
-  maxChunk: number;
-  angleBound: number;
-  velocityBound: number;
-  maxStepsPerChunk: number;
-  maxFrictionEvents: number;
-  workBase: number;
-  workPerSecond: number;
-  workPerSample: number;
-}
-
-/** Settings a caller may override; the rest come from TWIN_DEFAULTS. */
-export type TwinOptions = Partial<TwinSettings>;
-
-/**
- * A wall-time limit for one advance call. shared/ reads no clock, so the caller passes its own;
- * `deadline` is in the units of `now()` (e.g. performance.now(), ms).
- */
-export interface AdvanceLimits {
-  deadline: number;
-  now: () => number;
-}
-
-/** The work a run has spent, and its allowance at the time reached, in right-hand-side and event-function evaluations. */
-export interface TwinWork {
-  evaluations: number;
-  allowance: number;
-}
-
-/** Samples on the output grid; parallel arrays in time order. */
-export interface TwinSamples {
-  /** s */
-  t: Float64Array;
-  /** rad */
-  angle: Float64Array;
-  /** rad/s */
-  velocity: Float64Array;
-  /** Controller torque at the joint, N × motor torque, N·m (0 in open loop); the request before limit and dead band. */
-  controllerTorque: Float64Array;
-}
-
-/**
- * What the twin produces: the samples plus the drive torque that reached the joint and the
- * per-sample flags. A TwinSamples, so code written for the plain samples keeps working.
- */
-export interface TwinTrace extends TwinSamples {
-  /**
-   * Drive torque that reaches the joint after the torque limit and dead band, N·m. Closed loop: the
-   * controller's; open loop: the torque channel's (impulses excluded). Disturbances on the torque
-   * channel of a closed loop act on the joint directly and are not in here.
-   */
-  appliedTorque: Float64Array;
-  /**
-   * 1 where the drive request exceeds the torque limit, or holds on it while the anti-windup
-   * integrator slides there (continuous-pid.ts).
-   */
-  saturating: Uint8Array;
-  /** 1 where static friction holds the joint still. */
-  sticking: Uint8Array;
-}
-
-/** Why a run stopped before its horizon. */
-export interface TwinStop {
-  reason: 'bound';
-  /** Simulated time at which the bound was hit, s. */
-  time: number;
-  message: string;
-}
-
-/** Nonlinear effects whose first action a run records (for the superposition and shift checks). */
-export const twinEffects = ['torqueLimit', 'deadBand', 'friction', 'stiction', 'gravity', 'quantization', 'noise'] as const;
-/** One of the nonlinear effects a run records. */
-export type TwinEffect = (typeof twinEffects)[number];
-
-/** The first time one nonlinear effect changed the run. */
-export interface EffectOnset {
-  effect: TwinEffect;
-  /** s, on the output grid (sample instants for quantization and noise). */
-  time: number;
-  /** What happened, e.g. "torque limit ±2 N·m reached". */
-  description: string;
-}
-
-/** Regime switches a run has made, each at a located event (README: the twin's friction and `antiWindup` text). */
-export interface TwinSwitches {
-  /** Stick/slip switches of the friction. */
-  friction: number;
-  /** Anti-windup integrator switches between integrating, frozen and sliding on the limit. */
-  integrator: number;
-}
-
-/** A forcing term to add while a run is live; `delay` defaults to the run's current time. */
-export type KickTerm = Omit<InputTerm, 'delay'> & { delay?: number };
-
-/** A twin run that can be advanced piece by piece (for streaming) or all at once. */
-export interface TwinRun {
-  /** Simulated time reached so far, s. */
-  readonly time: number;
-  /** True once the horizon is reached or a bound stopped the run. */
-  readonly done: boolean;
-  /** Set when a bound stopped the run. */
-  readonly stop: TwinStop | null;
-  readonly horizon: number;
-  readonly dt: number;
-  /** The run's forcing terms, kicks included, in the order they were added. */
-  readonly inputs: readonly InputTerm[];
-  /** First action of each nonlinear effect so far, in time order. */
-  readonly effects: readonly EffectOnset[];
-  /** Work spent so far against the run's work budget. */
-  readonly work: TwinWork;
-  /** Regime switches so far. */
-  readonly switches: TwinSwitches;
-  /**
-   * Integrates up to `until` (clamped to the horizon) and returns the new grid samples. With
-   * `limits`, returns early at an integrator step boundary once the deadline has passed (after
-   * at least one step, so every call makes progress); call again to go on from there.
-   */
-  advance(until: number, limits?: AdvanceLimits): TwinTrace;
-  /**
-   * Appends a forcing term starting at the current time (or later), for kicks. Returns the term as
-   * added, which the closed form can take by superposition, or field errors.
-   */
-  kick(term: KickTerm): Parsed<InputTerm>;
-}
+// Callers import the twin's types from here; they live in their own files so each stays small.
+export { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions, type TwinSettings } from './twin-settings';
+export type { KickTerm, TwinRun, TwinSamples, TwinStop, TwinSwitches, TwinTrace, TwinWork } from './twin-types';
+export { twinEffects, type EffectOnset, type TwinEffect } from './effect-onsets';
 
 // State layout: angle, velocity, then for a continuous PID the integral of the error and the
 // derivative-filter state. A sampled controller keeps its state outside the integrator.
@@ -841,23 +686,6 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   };
 }
 
-function effectOnsets(onsets: Float64Array, scenario: Scenario): EffectOnset[] {
-  const nl = resolveNonlinear(scenario.nonlinear);
-  const describe: Record<TwinEffect, string> = {
-    torqueLimit: `torque limit ±${nl.torqueLimit} N·m reached`,
-    deadBand: `drive dead band ±${nl.deadBand} N·m engaged`,
-    friction: `Coulomb friction ${nl.coulombFriction} N·m sliding`,
-    stiction: `static friction (breakaway ${nl.staticFriction} N·m) holding the joint`,
-    gravity: `gravity load m·g·l = ${+nl.gravityTorque.toPrecision(6)} N·m acting`,
-    quantization: `encoder quantization (${nl.encoderCounts} counts/rev) changed the measurement`,
-    noise: `measurement noise (σ = ${nl.noiseStdDev} rad) present`,
-  };
-  const list: EffectOnset[] = [];
-  twinEffects.forEach((effect, i) => {
-    if (!Number.isNaN(onsets[i]!)) list.push({ effect, time: onsets[i]!, description: describe[effect] });
-  });
-  return list.sort((a, b) => a.time - b.time);
-}
 
 /**
  * Runs the twin over the whole horizon.

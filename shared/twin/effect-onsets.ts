@@ -1,0 +1,35 @@
+import { resolveNonlinear } from '../scenario/nonlinear-schema';
+import type { Scenario } from '../scenario/scenario-schema';
+
+/** Nonlinear effects whose first action a run records (for the superposition and shift checks). */
+export const twinEffects = ['torqueLimit', 'deadBand', 'friction', 'stiction', 'gravity', 'quantization', 'noise'] as const;
+/** One of the nonlinear effects a run records. */
+export type TwinEffect = (typeof twinEffects)[number];
+
+/** The first time one nonlinear effect changed the run. */
+export interface EffectOnset {
+  effect: TwinEffect;
+  /** s, on the output grid (sample instants for quantization and noise). */
+  time: number;
+  /** What happened, e.g. "torque limit ±2 N·m reached". */
+  description: string;
+}
+
+/** The effects that have acted so far, described with the scenario's values, in time order. */
+export function effectOnsets(onsets: Float64Array, scenario: Scenario): EffectOnset[] {
+  const nl = resolveNonlinear(scenario.nonlinear);
+  const describe: Record<TwinEffect, string> = {
+    torqueLimit: `torque limit ±${nl.torqueLimit} N·m reached`,
+    deadBand: `drive dead band ±${nl.deadBand} N·m engaged`,
+    friction: `Coulomb friction ${nl.coulombFriction} N·m sliding`,
+    stiction: `static friction (breakaway ${nl.staticFriction} N·m) holding the joint`,
+    gravity: `gravity load m·g·l = ${+nl.gravityTorque.toPrecision(6)} N·m acting`,
+    quantization: `encoder quantization (${nl.encoderCounts} counts/rev) changed the measurement`,
+    noise: `measurement noise (σ = ${nl.noiseStdDev} rad) present`,
+  };
+  const list: EffectOnset[] = [];
+  twinEffects.forEach((effect, i) => {
+    if (!Number.isNaN(onsets[i]!)) list.push({ effect, time: onsets[i]!, description: describe[effect] });
+  });
+  return list.sort((a, b) => a.time - b.time);
+}
