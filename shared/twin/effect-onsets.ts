@@ -15,8 +15,21 @@ export interface EffectOnset {
   description: string;
 }
 
+/** When each effect first acted, s; NaN while it has not. Keyed by name so a new effect cannot shift the others. */
+export type OnsetTimes = Record<TwinEffect, number>;
+
+/** Onset times of a run that has not started. */
+export function noOnsets(): OnsetTimes {
+  return Object.fromEntries(twinEffects.map((effect) => [effect, NaN])) as OnsetTimes;
+}
+
+/** Records `t` as the effect's onset unless an earlier one is recorded. */
+export function markOnset(onsets: OnsetTimes, effect: TwinEffect, t: number): void {
+  if (Number.isNaN(onsets[effect])) onsets[effect] = t;
+}
+
 /** The effects that have acted so far, described with the scenario's values, in time order. */
-export function effectOnsets(onsets: Float64Array, scenario: Scenario): EffectOnset[] {
+export function effectOnsets(onsets: OnsetTimes, scenario: Scenario): EffectOnset[] {
   const nl = resolveNonlinear(scenario.nonlinear);
   const describe: Record<TwinEffect, string> = {
     torqueLimit: `torque limit ±${nl.torqueLimit} N·m reached`,
@@ -28,8 +41,8 @@ export function effectOnsets(onsets: Float64Array, scenario: Scenario): EffectOn
     noise: `measurement noise (σ = ${nl.noiseStdDev} rad) present`,
   };
   const list: EffectOnset[] = [];
-  twinEffects.forEach((effect, i) => {
-    if (!Number.isNaN(onsets[i]!)) list.push({ effect, time: onsets[i]!, description: describe[effect] });
-  });
+  for (const effect of twinEffects) {
+    if (!Number.isNaN(onsets[effect])) list.push({ effect, time: onsets[effect], description: describe[effect] });
+  }
   return list.sort((a, b) => a.time - b.time);
 }

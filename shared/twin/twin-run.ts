@@ -20,7 +20,7 @@ import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcin
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
 import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
-import { effectOnsets, twinEffects, type EffectOnset } from './effect-onsets';
+import { effectOnsets, markOnset, noOnsets, type EffectOnset } from './effect-onsets';
 import { twinScenarioErrors } from './twin-scenario-errors';
 import { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions } from './twin-settings';
 import type { KickTerm, TwinRun, TwinStop, TwinTrace } from './twin-types';
@@ -142,10 +142,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   let heldRequest = 0;
   let pendingRequest = 0;
 
-  const onsets = new Float64Array(twinEffects.length).fill(NaN);
-  const markOnset = (effect: number, t: number) => {
-    if (Number.isNaN(onsets[effect]!)) onsets[effect] = t;
-  };
+  const onsets = noOnsets();
 
   /** The continuous controller's D: filtered, or x′ itself. */
   const derivativeOf = (state: readonly number[], t: number, error: number): number => {
@@ -310,8 +307,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const takeSample = (t: number) => {
     const disturbance = nl.noiseStdDev > 0 ? nl.noiseStdDev * noise.next() : 0;
     const measured = quantizeAngle(y[ANGLE]! + disturbance, nl.encoderCounts);
-    if (nl.noiseStdDev > 0) markOnset(6, t);
-    if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance) markOnset(5, t);
+    if (nl.noiseStdDev > 0) markOnset(onsets, 'noise', t);
+    if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance) markOnset(onsets, 'quantization', t);
     const request = sampledPidStep(pid, gains, stretch.reference(t), measured);
     heldRequest = nl.computeDelay ? pendingRequest : request;
     pendingRequest = request;
@@ -421,11 +418,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       out.appliedTorque[count] = applied;
       out.saturating[count] = saturating ? 1 : 0;
       out.sticking[count] = sticking ? 1 : 0;
-      if (saturating) markOnset(0, t);
-      if (nl.deadBand > 0 && requested !== 0) markOnset(1, t);
-      if (frictionOn && !sticking && nl.coulombFriction > 0) markOnset(2, t);
-      if (sticking && netTorque(state, t, drive) !== 0) markOnset(3, t);
-      if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0) markOnset(4, t);
+      if (saturating) markOnset(onsets, 'torqueLimit', t);
+      if (nl.deadBand > 0 && requested !== 0) markOnset(onsets, 'deadBand', t);
+      if (frictionOn && !sticking && nl.coulombFriction > 0) markOnset(onsets, 'friction', t);
+      if (sticking && netTorque(state, t, drive) !== 0) markOnset(onsets, 'stiction', t);
+      if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0) markOnset(onsets, 'gravity', t);
       count++;
       nextIndex++;
     };
