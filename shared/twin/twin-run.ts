@@ -16,6 +16,7 @@ import {
   type IntegratorRegime,
 } from './continuous-pid';
 import { firstPositive } from './event-bisection';
+import { chooseSlip, frictionBoundMessage, frictionEvent, initialFrictionState } from './friction-regime';
 import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcing-terms';
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
 import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
@@ -92,9 +93,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   let breakpointIndex = 0;
   let stop: TwinStop | null = null;
   let done = false;
-  /** Friction regime: +1 or −1 sliding in that direction, 0 held by static friction. */
-  let slip = 0;
-  let frictionEvents = 0;
+  const friction = initialFrictionState();
   /** Last accepted odex step, s; the first step of the next segment starts from it. */
   let lastStep = 1e-4;
   /** Right-hand-side and event-function evaluations so far (the work budget's unit). */
@@ -179,12 +178,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   /** θ′ and θ″ under a drive request, in the friction regime as it stands, into `into`. */
   const jointRates = (state: readonly number[], t: number, requested: number, into: number[]) => {
     const net = netTorque(state, t, requested);
-    if (frictionOn && slip === 0) {
+    if (frictionOn && friction.slip === 0) {
       into[ANGLE] = 0;
       into[VELOCITY] = 0;
     } else {
       into[ANGLE] = state[VELOCITY]!;
-      into[VELOCITY] = (frictionOn ? net - slip * nl.coulombFriction : net) / joint.inertia;
+      into[VELOCITY] = (frictionOn ? net - friction.slip * nl.coulombFriction : net) / joint.inertia;
     }
   };
 
@@ -230,26 +229,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     return rates;
   };
 
-  /**
-   * The friction event function: it turns positive when the regime must change.
-   * Why stick/slip cannot chatter: a slide starts only where |τ_net| > τs ≥ τc, so its
-   * acceleration (τ_net − s·τc)/J has the slide's sign and carries the velocity away from zero;
-   * a slide ends at exactly v = 0 and sticks only where |τ_net| ≤ τs, and stays stuck until the
-   * net torque has changed by a finite amount. Zeno-like hunting of a drive held at the
-   * breakaway threshold is bounded by maxFrictionEvents and the work budget.
-   */
-  const frictionEvent = (state: readonly number[], t: number, drive = driveRequest(state, t)): number => {
-    if (slip !== 0) return -slip * state[VELOCITY]!;
-    return Math.abs(netTorque(state, t, drive)) - nl.staticFriction;
-  };
+  /** The friction event at a state (friction-regime.ts); the net torque is needed only while held. */
+  const stickSlipEvent = (state: readonly number[], t: number, drive = driveRequest(state, t)): number =>
+    frictionEvent(friction.slip, state[VELOCITY]!, friction.slip === 0 ? netTorque(state, t, drive) : 0, nl.staticFriction);
 
   const chooseFrictionRegime = () => {
-    if (y[VELOCITY] !== 0) {
-      slip = Math.sign(y[VELOCITY]!);
-      return;
-    }
-    const net = netTorque(y, time, driveRequest(y, time));
-    slip = Math.abs(net) > nl.staticFriction ? Math.sign(net) : 0;
+    friction.slip = chooseSlip(y[VELOCITY]!, y[VELOCITY] !== 0 ? 0 : netTorque(y, time, driveRequest(y, time)), nl.staticFriction);
   };
 
   /** The anti-windup event function at a state: positive once the integrator's regime no longer holds. */
@@ -260,10 +245,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
 
   /** Whether a regime must change at a state: the friction's or the integrator's (the request computed once for both). */
   const regimeEnds = (state: readonly number[], t: number): boolean => {
-    if (!windupOn) return frictionEvent(state, t) > 0;
+    if (!windupOn) return stickSlipEvent(state, t) > 0;
     const error = stretch.reference(t) - state[ANGLE]!;
     const requested = pidRequest(pidGains, error, state[INTEGRAL]!, derivativeOf(state, t, error));
-    if (frictionOn && frictionEvent(state, t, windup.mode === 'sliding' ? windup.side * limit : requested) > 0) return true;
+    if (frictionOn && stickSlipEvent(state, t, windup.mode === 'sliding' ? windup.side * limit : requested) > 0) return true;
     return windupEvent(state, t, error, requested) > 0;
   };
 
@@ -380,7 +365,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
    * turned (its sign at the ends differs), so the velocity may have dipped through zero and back.
    */
   const maySlideToRest = (startAcceleration: number, end: readonly number[], t: number) => {
-    if (slip * end[VELOCITY]! <= 0) return true;
+    if (friction.slip * end[VELOCITY]! <= 0) return true;
     const endAcceleration = rhs(t, end as number[])[VELOCITY]!;
     return startAcceleration * endAcceleration <= 0;
   };
@@ -410,7 +395,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       const drive = sliding ? windup.side * limit : requested;
       const applied = shapesDrive ? driveTorque(drive, limit, nl.deadBand) : requested;
       const saturating = sliding || Math.abs(requested) > limit;
-      const sticking = frictionOn && slip === 0;
+      const sticking = frictionOn && friction.slip === 0;
       out.t[count] = t;
       out.angle[count] = state[ANGLE]!;
       out.velocity[count] = state[VELOCITY]!;
@@ -523,7 +508,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (time >= target) break;
       const end = nextStop();
       const segmentStart = time;
-      if (frictionOn && slip === 0 && !continuousLoop && stretch.torqueConstant) {
+      if (frictionOn && friction.slip === 0 && !continuousLoop && stretch.torqueConstant) {
         // Stuck, with a held (or no) controller torque and a torque channel constant between its
         // edges: nothing on the joint changes before `end`, so the state stays put exactly.
         while (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps) emit(gridTime(nextIndex), y);
@@ -537,7 +522,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       // redo the stretch with dense output when the end state says the slide may have ended.
       // (A sampled loop restarts at every sample, so this is most of its stretches; a continuous
       // loop with anti-windup regimes has few stretches and always looks for its events.)
-      const tryPlain = !gridInside && !windupOn && (!frictionOn || slip !== 0);
+      const tryPlain = !gridInside && !windupOn && (!frictionOn || friction.slip !== 0);
       const startAcceleration = tryPlain && frictionOn ? rhs(segmentStart, y)[VELOCITY]! : 0;
       let segment = integrateStretch(tryPlain ? plainSolver : solver, segmentStart, end);
       // A plain stretch left at the deadline is checked like a finished one: the slide may have ended inside.
@@ -576,14 +561,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (halt === 'event') {
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
         // The same test the scan made at this state: a friction event, an integrator one, or both.
-        const frictionSwitch = frictionOn && frictionEvent(y, eventTime) > 0;
+        const frictionSwitch = frictionOn && stickSlipEvent(y, eventTime) > 0;
         // A slide ends exactly at rest; the bisection leaves |v| at roundoff level past zero.
-        if (frictionSwitch && slip !== 0) y[VELOCITY] = 0;
-        if (frictionSwitch && ++frictionEvents > o.maxFrictionEvents) {
-          stopAt(
-            eventTime,
-            `friction event bound: ${o.maxFrictionEvents} stick/slip switches by t = ${eventTime.toFixed(4)} s; the joint is being driven around the stiction threshold faster than the twin can follow`,
-          );
+        if (frictionSwitch && friction.slip !== 0) y[VELOCITY] = 0;
+        if (frictionSwitch && ++friction.events > o.maxFrictionEvents) {
+          stopAt(eventTime, frictionBoundMessage(o.maxFrictionEvents, eventTime));
           break;
         }
         arriveAt(eventTime);
@@ -674,7 +656,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       return { evaluations, allowance: allowance(time) };
     },
     get switches() {
-      return { friction: frictionEvents, integrator: windupSwitches };
+      return { friction: friction.events, integrator: windupSwitches };
     },
     horizon,
     dt,
