@@ -25,6 +25,7 @@ import { effectOnsets, markOnset, noOnsets, type EffectOnset } from './effect-on
 import { twinScenarioErrors } from './twin-scenario-errors';
 import { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions } from './twin-settings';
 import type { KickTerm, TwinRun, TwinStop, TwinTrace } from './twin-types';
+import { workAllowance, workMessage, type WorkSpent } from './work-budget';
 
 // Callers import the twin's types from here; they live in their own files so each stays small.
 export { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions, type TwinSettings } from './twin-settings';
@@ -96,11 +97,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const friction = initialFrictionState();
   /** Last accepted odex step, s; the first step of the next segment starts from it. */
   let lastStep = 1e-4;
-  /** Right-hand-side and event-function evaluations so far (the work budget's unit). */
-  let evaluations = 0;
+  const work: WorkSpent = { evaluations: 0 };
   /** The work budget by simulated time t (see TWIN_DEFAULTS.workBase). */
-  const allowance = (t: number) => o.workBase + o.workPerSecond * t + o.workPerSample * (nextIndex + nextSample);
-  const overBudget = (t: number) => evaluations > allowance(t);
+  const allowance = (t: number) => workAllowance(o, t, nextIndex + nextSample);
+  const overBudget = (t: number) => work.evaluations > allowance(t);
   /**
    * A stretch left at a step boundary when a deadline passed: where it began and the odex steps
    * spent on it, so the per-stretch step bound means the same whether or not it was interrupted.
@@ -211,7 +211,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
 
   const rates = new Array<number>(stateSize).fill(0);
   const rhs = (t: number, state: number[]): number[] => {
-    evaluations++;
+    work.evaluations++;
     const reference = continuousLoop ? stretch.reference(t) : 0;
     const requested = continuousLoop
       ? windup.mode === 'sliding'
@@ -370,8 +370,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     return startAcceleration * endAcceleration <= 0;
   };
 
-  const workMessage = (t: number) =>
-    `work budget: ${evaluations.toExponential(2).replace('e+', 'e')} evaluations by t = ${t.toFixed(4)} s, over the twin's allowance of ${o.workBase} + ${o.workPerSecond} per simulated second + ${o.workPerSample} per sample; the scenario is too stiff, or switches friction too often, for the twin to follow (check the gains against the inertia)`;
+  const overBudgetMessage = (t: number) => workMessage(o, work.evaluations, t);
 
   function advance(until: number, limits?: AdvanceLimits): TwinTrace {
     const target = Math.min(until, horizon);
@@ -448,7 +447,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         let stepEnd = x;
         if (eventsOn) {
           const g = (t: number) => {
-            evaluations++;
+            work.evaluations++;
             for (let c = 0; c < stateSize; c++) eventState[c] = dense(c, t);
             return regimeEnds(eventState, t) ? 1 : -1;
           };
@@ -539,7 +538,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       }
       if (halt === 'work') {
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
-        stopAt(eventTime, workMessage(eventTime));
+        stopAt(eventTime, overBudgetMessage(eventTime));
         break;
       }
       if (result.outcome === Outcome.MaxStepsExceeded) {
@@ -575,7 +574,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       }
       if (!settleArrival()) break;
       if (overBudget(time)) {
-        stopAt(time, workMessage(time));
+        stopAt(time, overBudgetMessage(time));
         break;
       }
       if (pastDeadline()) break;
@@ -653,7 +652,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       return effectOnsets(onsets, scenario);
     },
     get work() {
-      return { evaluations, allowance: allowance(time) };
+      return { evaluations: work.evaluations, allowance: allowance(time) };
     },
     get switches() {
       return { friction: friction.events, integrator: windupSwitches };
