@@ -22,6 +22,7 @@ import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
 import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
 import { effectOnsets, markOnset, noOnsets, type EffectOnset } from './effect-onsets';
+import { TraceRecorder } from './trace-recorder';
 import { twinScenarioErrors } from './twin-scenario-errors';
 import { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions } from './twin-settings';
 import type { KickTerm, TwinRun, TwinStop, TwinTrace } from './twin-types';
@@ -378,16 +379,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     // The last odex call may end up to one chunk past the target; its grid points are kept.
     const lastWanted = Math.min(lastIndex, Math.floor((target + o.maxChunk) / dt + 1e-9));
     const capacity = Math.max(0, lastWanted - nextIndex + 1);
-    const out: TwinTrace = {
-      t: new Float64Array(capacity),
-      angle: new Float64Array(capacity),
-      velocity: new Float64Array(capacity),
-      controllerTorque: new Float64Array(capacity),
-      appliedTorque: new Float64Array(capacity),
-      saturating: new Uint8Array(capacity),
-      sticking: new Uint8Array(capacity),
-    };
-    let count = 0;
+    const recorder = new TraceRecorder(capacity);
     const emit = (t: number, state: readonly number[]) => {
       const requested = requestedTorque(state, t);
       const sliding = windup.mode === 'sliding';
@@ -395,19 +387,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       const applied = shapesDrive ? driveTorque(drive, limit, nl.deadBand) : requested;
       const saturating = sliding || Math.abs(requested) > limit;
       const sticking = frictionOn && friction.slip === 0;
-      out.t[count] = t;
-      out.angle[count] = state[ANGLE]!;
-      out.velocity[count] = state[VELOCITY]!;
-      out.controllerTorque[count] = closedLoop ? requested : 0;
-      out.appliedTorque[count] = applied;
-      out.saturating[count] = saturating ? 1 : 0;
-      out.sticking[count] = sticking ? 1 : 0;
+      recorder.record(t, state[ANGLE]!, state[VELOCITY]!, closedLoop ? requested : 0, applied, saturating, sticking);
       if (saturating) markOnset(onsets, 'torqueLimit', t);
       if (nl.deadBand > 0 && requested !== 0) markOnset(onsets, 'deadBand', t);
       if (frictionOn && !sticking && nl.coulombFriction > 0) markOnset(onsets, 'friction', t);
       if (sticking && netTorque(state, t, drive) !== 0) markOnset(onsets, 'stiction', t);
       if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0) markOnset(onsets, 'gravity', t);
-      count++;
       nextIndex++;
     };
     const emitFromState = (upTo: number) => {
@@ -580,15 +565,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (pastDeadline()) break;
     }
     if (nextIndex > lastIndex) done = true;
-    return {
-      t: out.t.subarray(0, count),
-      angle: out.angle.subarray(0, count),
-      velocity: out.velocity.subarray(0, count),
-      controllerTorque: out.controllerTorque.subarray(0, count),
-      appliedTorque: out.appliedTorque.subarray(0, count),
-      saturating: out.saturating.subarray(0, count),
-      sticking: out.sticking.subarray(0, count),
-    };
+    return recorder.trace();
   }
 
   function stopAt(t: number, message: string) {
