@@ -1,7 +1,7 @@
 import { Outcome, Solver } from 'odex';
 import { resolveNonlinear } from '../scenario/nonlinear-schema';
-import { inputTermSchema, MAX_INPUT_TERMS, type InputTerm, type Scenario } from '../scenario/scenario-schema';
-import { describeFieldErrors, parseWith, type Parsed } from '../validation/field-errors';
+import type { InputTerm, Scenario } from '../scenario/scenario-schema';
+import { describeFieldErrors, type Parsed } from '../validation/field-errors';
 import {
   chooseIntegratorRegime,
   frozenRequestRate,
@@ -19,6 +19,7 @@ import { firstPositive } from './event-bisection';
 import { chooseSlip, frictionBoundMessage, frictionEvent, initialFrictionState } from './friction-regime';
 import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcing-terms';
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
+import { admitKick } from './kick-rule';
 import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
 import { effectOnsets, markOnset, noOnsets, type EffectOnset } from './effect-onsets';
@@ -575,24 +576,9 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   }
 
   function kick(term: KickTerm): Parsed<InputTerm> {
-    if (done) return { ok: false, errors: [{ field: '', message: `the run has ended at t = ${time.toFixed(4)} s; a kick needs a live run` }] };
-    const parsed = parseWith(inputTermSchema, { ...term, delay: term.delay ?? time });
-    if (!parsed.ok) return parsed;
-    const added = parsed.value;
-    if (added.delay < time - mergeEps) {
-      return { ok: false, errors: [{ field: 'delay', message: `a kick cannot start at t = ${added.delay} s: the run is already at t = ${time} s` }] };
-    }
-    if (added.delay >= horizon) {
-      return { ok: false, errors: [{ field: 'delay', message: `a kick must start before the horizon (${horizon} s), got ${added.delay} s` }] };
-    }
-    if (added.channel === 'reference' && !closedLoop) {
-      return { ok: false, errors: [{ field: 'channel', message: 'a reference kick needs a closed loop (controller.mode "pid")' }] };
-    }
-    if (inputs.length >= MAX_INPUT_TERMS) {
-      return { ok: false, errors: [{ field: '', message: `at most ${MAX_INPUT_TERMS} input terms are allowed in one run, kicks included` }] };
-    }
-    // A kick a roundoff before now starts now, so it is not lost between two stops.
-    if (added.delay < time) added.delay = time;
+    const admitted = admitKick(term, { done, time, horizon, closedLoop, termCount: inputs.length, mergeEps });
+    if (!admitted.ok) return admitted;
+    const added = admitted.value;
     inputs.push(added);
     forcing = forcingTermsOf({ ...scenario, inputs });
     if (started && added.delay === time) {
