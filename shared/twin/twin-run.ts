@@ -1,4 +1,4 @@
-import { Outcome, Solver } from 'odex';
+import { Outcome, type Solver } from 'odex';
 import { resolveNonlinear } from '../scenario/nonlinear-schema';
 import type { InputTerm, Scenario } from '../scenario/scenario-schema';
 import { describeFieldErrors, type Parsed } from '../validation/field-errors';
@@ -20,10 +20,12 @@ import { chooseSlip, frictionBoundMessage, frictionEvent, initialFrictionState }
 import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcing-terms';
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
 import { admitKick } from './kick-rule';
+import { boundMessage as runawayMessage, outOfBounds as runaway } from './run-bounds';
 import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
 import { effectOnsets, markOnset, noOnsets, type EffectOnset } from './effect-onsets';
 import { TraceRecorder } from './trace-recorder';
+import { createTwinSolver } from './twin-solver';
 import { twinScenarioErrors } from './twin-scenario-errors';
 import { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions } from './twin-settings';
 import type { KickTerm, TwinRun, TwinStop, TwinTrace } from './twin-types';
@@ -33,19 +35,13 @@ import { workAllowance, workMessage, type WorkSpent } from './work-budget';
 export { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions, type TwinSettings } from './twin-settings';
 export type { KickTerm, TwinRun, TwinSamples, TwinStop, TwinSwitches, TwinTrace, TwinWork } from './twin-types';
 export { twinEffects, type EffectOnset, type TwinEffect } from './effect-onsets';
-
-// State layout: angle, velocity, then for a continuous PID the integral of the error and the
-// derivative-filter state. A sampled controller keeps its state outside the integrator.
-/**
- * odex extrapolation columns (its default is 9). Each solve allocates tables of size ~2·k², and a
- * sampled loop solves once per sample: 6 columns cut that cost by a fifth in our measurements
- * while the steps the twin takes (≤ one chunk) never need a higher order.
- */
-export const EXTRAPOLATION_COLUMNS = 6;
+export { EXTRAPOLATION_COLUMNS } from './twin-solver';
 
 /** Most points at which one integrator step is scanned for a regime event. */
 const MAX_EVENT_SCAN = 1000;
 
+// State layout: angle, velocity, then for a continuous PID the integral of the error and the
+// derivative-filter state. A sampled controller keeps its state outside the integrator.
 const ANGLE = 0;
 const VELOCITY = 1;
 const INTEGRAL = 2;
@@ -333,30 +329,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     return Math.min(end, horizon);
   };
 
-  const outOfBounds = (state: readonly number[]) =>
-    !Number.isFinite(state[ANGLE]!) ||
-    !Number.isFinite(state[VELOCITY]!) ||
-    Math.abs(state[ANGLE]!) > o.angleBound ||
-    Math.abs(state[VELOCITY]!) > o.velocityBound;
+  const outOfBounds = (state: readonly number[]) => runaway(o, state[ANGLE]!, state[VELOCITY]!);
+  const boundMessage = (state: readonly number[], t: number) => runawayMessage(o, state[ANGLE]!, t);
 
-  const boundMessage = (state: readonly number[], t: number) =>
-    Math.abs(state[ANGLE]!) > o.angleBound || !Number.isFinite(state[ANGLE]!)
-      ? `angle left ±${o.angleBound} rad at t = ${t.toFixed(4)} s: the scenario runs away (unstable loop or unbounded forcing)`
-      : `velocity left ±${o.velocityBound} rad/s at t = ${t.toFixed(4)} s: the scenario runs away (unstable loop or unbounded forcing)`;
-
-  const solver = new Solver(stateSize);
-  solver.denseOutput = true;
-  solver.relativeTolerance = o.relativeTolerance;
-  solver.absoluteTolerance = o.absoluteTolerance;
-  solver.maxSteps = o.maxStepsPerChunk;
-  solver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
-  // Without grid points or events inside a segment the dense interpolant is not needed; this
-  // solver skips building it (a sampled loop at 1 ms with 1 ms output restarts 1000 times a second).
-  const plainSolver = new Solver(stateSize);
-  plainSolver.relativeTolerance = o.relativeTolerance;
-  plainSolver.absoluteTolerance = o.absoluteTolerance;
-  plainSolver.maxSteps = o.maxStepsPerChunk;
-  plainSolver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
+  const solver = createTwinSolver(stateSize, o, true);
+  const plainSolver = createTwinSolver(stateSize, o, false);
 
   const stepState = new Array<number>(stateSize).fill(0);
   const eventState = new Array<number>(stateSize).fill(0);
