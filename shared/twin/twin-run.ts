@@ -21,7 +21,7 @@ import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcin
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
 import { admitKick } from './kick-rule';
 import { boundMessage as runawayMessage, outOfBounds as runaway } from './run-bounds';
-import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
+import { holdRequest, initialSampledPidState, initialSampleHold, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
 import { effectOnsets, markOnset, noOnsets, type EffectOnset } from './effect-onsets';
 import { TraceRecorder } from './trace-recorder';
@@ -105,7 +105,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
    */
   let resumed: { from: number; steps: number } | null = null;
 
-  // Sampled controller: state, held torque request, the request waiting out a compute delay.
+  // Sampled controller: its law's state and the hold of its request (sampled-pid.ts).
   const gains: SampledPidGains = {
     kp,
     ki,
@@ -136,8 +136,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const eventsOn = frictionOn || windupOn;
   const noise = gaussianSource(nl.noiseSeed);
   let nextSample = 0;
-  let heldRequest = 0;
-  let pendingRequest = 0;
+  const hold = initialSampleHold();
 
   const onsets = noOnsets();
 
@@ -155,7 +154,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   /** Drive torque asked for at the joint before limit and dead band, N·m. */
   const requestedTorque = (state: readonly number[], t: number): number => {
     if (!closedLoop) return stretch.torque(t);
-    return sampled ? heldRequest : continuousRequest(state, t);
+    return sampled ? hold.held : continuousRequest(state, t);
   };
 
   /**
@@ -293,8 +292,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     if (nl.noiseStdDev > 0) markOnset(onsets, 'noise', t);
     if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance) markOnset(onsets, 'quantization', t);
     const request = sampledPidStep(pid, gains, stretch.reference(t), measured);
-    heldRequest = nl.computeDelay ? pendingRequest : request;
-    pendingRequest = request;
+    holdRequest(hold, request, nl.computeDelay);
   };
 
   /** Brings the run to time t with y the left limit there: jumps, controller sample, friction regime. */
