@@ -20,12 +20,9 @@ export type OnsetTimes = Record<TwinEffect, number>;
 
 /** Onset times of a run that has not started. */
 export function noOnsets(): OnsetTimes {
-  return Object.fromEntries(twinEffects.map((effect) => [effect, NaN])) as OnsetTimes;
-}
-
-/** Records `t` as the effect's onset unless an earlier one is recorded. */
-export function markOnset(onsets: OnsetTimes, effect: TwinEffect, t: number): void {
-  if (Number.isNaN(onsets[effect])) onsets[effect] = t;
+  // A literal, not built from twinEffects: the run marks onsets at every sample, and an object
+  // of fixed shape keeps those stores cheap; the type makes the literal name every effect.
+  return { torqueLimit: NaN, deadBand: NaN, friction: NaN, stiction: NaN, gravity: NaN, quantization: NaN, noise: NaN };
 }
 
 /** The effects that have acted so far, described with the scenario's values, in time order. */

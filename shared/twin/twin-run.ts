@@ -23,7 +23,7 @@ import { admitKick } from './kick-rule';
 import { boundMessage as runawayMessage, outOfBounds as runaway } from './run-bounds';
 import { holdRequest, initialSampledPidState, initialSampleHold, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
-import { effectOnsets, markOnset, noOnsets, type EffectOnset } from './effect-onsets';
+import { effectOnsets, noOnsets, type EffectOnset } from './effect-onsets';
 import { TraceRecorder } from './trace-recorder';
 import { createTwinSolver } from './twin-solver';
 import { twinScenarioErrors } from './twin-scenario-errors';
@@ -138,6 +138,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   let nextSample = 0;
   const hold = initialSampleHold();
 
+  // Each onset is kept the first time its effect acts (NaN until then); written as named stores
+  // because these checks run at every output sample and a keyed store by effect name measured slower.
   const onsets = noOnsets();
 
   /** The continuous controller's D: filtered, or x′ itself. */
@@ -289,8 +291,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const takeSample = (t: number) => {
     const disturbance = nl.noiseStdDev > 0 ? nl.noiseStdDev * noise.next() : 0;
     const measured = quantizeAngle(y[ANGLE]! + disturbance, nl.encoderCounts);
-    if (nl.noiseStdDev > 0) markOnset(onsets, 'noise', t);
-    if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance) markOnset(onsets, 'quantization', t);
+    if (nl.noiseStdDev > 0 && Number.isNaN(onsets.noise)) onsets.noise = t;
+    if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance && Number.isNaN(onsets.quantization)) onsets.quantization = t;
     const request = sampledPidStep(pid, gains, stretch.reference(t), measured);
     holdRequest(hold, request, nl.computeDelay);
   };
@@ -364,11 +366,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       const saturating = sliding || Math.abs(requested) > limit;
       const sticking = frictionOn && friction.slip === 0;
       recorder.record(t, state[ANGLE]!, state[VELOCITY]!, closedLoop ? requested : 0, applied, saturating, sticking);
-      if (saturating) markOnset(onsets, 'torqueLimit', t);
-      if (nl.deadBand > 0 && requested !== 0) markOnset(onsets, 'deadBand', t);
-      if (frictionOn && !sticking && nl.coulombFriction > 0) markOnset(onsets, 'friction', t);
-      if (sticking && netTorque(state, t, drive) !== 0) markOnset(onsets, 'stiction', t);
-      if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0) markOnset(onsets, 'gravity', t);
+      if (saturating && Number.isNaN(onsets.torqueLimit)) onsets.torqueLimit = t;
+      if (nl.deadBand > 0 && requested !== 0 && Number.isNaN(onsets.deadBand)) onsets.deadBand = t;
+      if (frictionOn && !sticking && nl.coulombFriction > 0 && Number.isNaN(onsets.friction)) onsets.friction = t;
+      if (sticking && netTorque(state, t, drive) !== 0 && Number.isNaN(onsets.stiction)) onsets.stiction = t;
+      if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0 && Number.isNaN(onsets.gravity)) onsets.gravity = t;
       nextIndex++;
     };
     const emitFromState = (upTo: number) => {
