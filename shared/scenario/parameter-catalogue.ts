@@ -8,7 +8,7 @@ import { z } from 'zod';
  * The ranges refuse values no joint can have — from micro-actuators (rotor inertia ~1e-10 kg·m²)
  * to large industrial axes (~1e6 kg·m²) everything physical passes — so a typo or a hostile
  * 1e308 stops at the edge instead of in the integrator. They cannot foresee every stiff
- * combination of in-range values; the twin's work budget (shared/twin/twin-run.ts) bounds those.
+ * combination of in-range values; the twin's work budget (shared/twin/work-budget.ts) bounds those.
  * Magnitudes are order-of-magnitude engineering estimates (from memory, rounded up generously).
  *
  * One entry per parameter, plain data. The app builds its tuning form, the scenario page's editor

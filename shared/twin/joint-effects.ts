@@ -1,6 +1,7 @@
 /**
  * The static nonlinearities of the twin's joint, as pure functions of one value each. The
- * stateful ones (stiction, sampling) live in the run itself.
+ * stateful ones have regimes of their own: stiction in friction-regime.ts, the controller's
+ * sampling in sampled-pid.ts.
  */
 
 /**

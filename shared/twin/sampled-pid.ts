@@ -64,3 +64,25 @@ export function sampledPidStep(state: SampledPidState, gains: SampledPidGains, r
   if (!windingUp) state.integral += gains.period * error;
   return requested;
 }
+
+/**
+ * The sampled controller's output: a zero-order hold of its request, optionally one sample
+ * late (the compute delay: a request computed at t_k reaches the drive at t_{k+1}).
+ */
+export interface SampleHold {
+  /** The request the drive acts on until the next sample, N·m at the joint. */
+  held: number;
+  /** The latest request, waiting out the compute delay, N·m. */
+  pending: number;
+}
+
+/** A hold before the first sample: no torque requested. */
+export function initialSampleHold(): SampleHold {
+  return { held: 0, pending: 0 };
+}
+
+/** Passes a new request through the hold, in place; `computeDelay` holds the previous one instead. */
+export function holdRequest(hold: SampleHold, request: number, computeDelay: boolean): void {
+  hold.held = computeDelay ? hold.pending : request;
+  hold.pending = request;
+}

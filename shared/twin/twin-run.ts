@@ -1,7 +1,7 @@
-import { Outcome, Solver } from 'odex';
+import { Outcome, type Solver } from 'odex';
 import { resolveNonlinear } from '../scenario/nonlinear-schema';
-import { inputTermSchema, MAX_INPUT_TERMS, type InputTerm, type Scenario } from '../scenario/scenario-schema';
-import { describeFieldErrors, parseWith, type Parsed } from '../validation/field-errors';
+import type { InputTerm, Scenario } from '../scenario/scenario-schema';
+import { describeFieldErrors, type Parsed } from '../validation/field-errors';
 import {
   chooseIntegratorRegime,
   frozenRequestRate,
@@ -16,187 +16,32 @@ import {
   type IntegratorRegime,
 } from './continuous-pid';
 import { firstPositive } from './event-bisection';
+import { chooseSlip, frictionBoundMessage, frictionEvent, initialFrictionState } from './friction-regime';
 import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcing-terms';
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
-import { initialSampledPidState, sampledPidStep, type SampledPidGains } from './sampled-pid';
+import { admitKick } from './kick-rule';
+import { boundMessage as runawayMessage, outOfBounds as runaway } from './run-bounds';
+import { holdRequest, initialSampledPidState, initialSampleHold, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
+import { effectOnsets, noOnsets, type EffectOnset } from './effect-onsets';
+import { TraceRecorder } from './trace-recorder';
+import { createTwinSolver } from './twin-solver';
 import { twinScenarioErrors } from './twin-scenario-errors';
+import { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions } from './twin-settings';
+import type { KickTerm, TwinRun, TwinStop, TwinTrace } from './twin-types';
+import { workAllowance, workMessage, type WorkSpent } from './work-budget';
 
-/** Defaults of a twin run; the README's configuration table quotes these. */
-export const TWIN_DEFAULTS: TwinSettings = {
-  /** Output sample spacing, s. */
-  dt: 0.001,
-  /** odex relative and absolute tolerances. */
-  relativeTolerance: 1e-10,
-  absoluteTolerance: 1e-10,
-  /**
-   * Longest stretch integrated in one odex call, s. Each restart costs odex its start-up work
-   * (a quarter-second chunk made a 10 s run about a third slower than 1 s chunks when measured);
-   * live runs pass a short one so a kick lands close to what is on screen.
-   */
-  maxChunk: 1,
-  /** A run stops when |angle| exceeds this, rad (a runaway joint, not a real move). */
-  angleBound: 1e6,
-  /** A run stops when |velocity| exceeds this, rad/s. */
-  velocityBound: 1e7,
-  /** odex step budget per chunk; exhausting it means the scenario is too stiff for this integrator. */
-  maxStepsPerChunk: 20000,
-  /** Most stick/slip switches in one run; more means the friction model is being driven in circles. */
-  maxFrictionEvents: 100000,
-  /**
-   * The work budget, in right-hand-side and event-function evaluations: by simulated time t a
-   * run may have spent workBase + workPerSecond × t + workPerSample × (output and controller
-   * samples reached). Paced rather than totalled, so a scenario that grinds is stopped early
-   * instead of at its horizon. The parameter catalogue refuses impossible values; this bounds
-   * stiff combinations of possible ones. Sized from measurements (freeze-readme): the demo
-   * scenarios spend under 1 % of workBase, a 10 s 1 ms sampled loop with every effect ~4.4 per sample.
-   */
-  workBase: 1_000_000,
-  workPerSecond: 100_000,
-  workPerSample: 20,
-};
-
-/** Numerical settings of a twin run; TWIN_DEFAULTS documents each. */
-export interface TwinSettings {
-  dt: number;
-  relativeTolerance: number;
-  absoluteTolerance: number;
-  maxChunk: number;
-  angleBound: number;
-  velocityBound: number;
-  maxStepsPerChunk: number;
-  maxFrictionEvents: number;
-  workBase: number;
-  workPerSecond: number;
-  workPerSample: number;
-}
-
-/** Settings a caller may override; the rest come from TWIN_DEFAULTS. */
-export type TwinOptions = Partial<TwinSettings>;
-
-/**
- * A wall-time limit for one advance call. shared/ reads no clock, so the caller passes its own;
- * `deadline` is in the units of `now()` (e.g. performance.now(), ms).
- */
-export interface AdvanceLimits {
-  deadline: number;
-  now: () => number;
-}
-
-/** The work a run has spent, and its allowance at the time reached, in right-hand-side and event-function evaluations. */
-export interface TwinWork {
-  evaluations: number;
-  allowance: number;
-}
-
-/** Samples on the output grid; parallel arrays in time order. */
-export interface TwinSamples {
-  /** s */
-  t: Float64Array;
-  /** rad */
-  angle: Float64Array;
-  /** rad/s */
-  velocity: Float64Array;
-  /** Controller torque at the joint, N × motor torque, N·m (0 in open loop); the request before limit and dead band. */
-  controllerTorque: Float64Array;
-}
-
-/**
- * What the twin produces: the samples plus the drive torque that reached the joint and the
- * per-sample flags. A TwinSamples, so code written for the plain samples keeps working.
- */
-export interface TwinTrace extends TwinSamples {
-  /**
-   * Drive torque that reaches the joint after the torque limit and dead band, N·m. Closed loop: the
-   * controller's; open loop: the torque channel's (impulses excluded). Disturbances on the torque
-   * channel of a closed loop act on the joint directly and are not in here.
-   */
-  appliedTorque: Float64Array;
-  /**
-   * 1 where the drive request exceeds the torque limit, or holds on it while the anti-windup
-   * integrator slides there (continuous-pid.ts).
-   */
-  saturating: Uint8Array;
-  /** 1 where static friction holds the joint still. */
-  sticking: Uint8Array;
-}
-
-/** Why a run stopped before its horizon. */
-export interface TwinStop {
-  reason: 'bound';
-  /** Simulated time at which the bound was hit, s. */
-  time: number;
-  message: string;
-}
-
-/** Nonlinear effects whose first action a run records (for the superposition and shift checks). */
-export const twinEffects = ['torqueLimit', 'deadBand', 'friction', 'stiction', 'gravity', 'quantization', 'noise'] as const;
-/** One of the nonlinear effects a run records. */
-export type TwinEffect = (typeof twinEffects)[number];
-
-/** The first time one nonlinear effect changed the run. */
-export interface EffectOnset {
-  effect: TwinEffect;
-  /** s, on the output grid (sample instants for quantization and noise). */
-  time: number;
-  /** What happened, e.g. "torque limit ±2 N·m reached". */
-  description: string;
-}
-
-/** Regime switches a run has made, each at a located event (README: the twin's friction and `antiWindup` text). */
-export interface TwinSwitches {
-  /** Stick/slip switches of the friction. */
-  friction: number;
-  /** Anti-windup integrator switches between integrating, frozen and sliding on the limit. */
-  integrator: number;
-}
-
-/** A forcing term to add while a run is live; `delay` defaults to the run's current time. */
-export type KickTerm = Omit<InputTerm, 'delay'> & { delay?: number };
-
-/** A twin run that can be advanced piece by piece (for streaming) or all at once. */
-export interface TwinRun {
-  /** Simulated time reached so far, s. */
-  readonly time: number;
-  /** True once the horizon is reached or a bound stopped the run. */
-  readonly done: boolean;
-  /** Set when a bound stopped the run. */
-  readonly stop: TwinStop | null;
-  readonly horizon: number;
-  readonly dt: number;
-  /** The run's forcing terms, kicks included, in the order they were added. */
-  readonly inputs: readonly InputTerm[];
-  /** First action of each nonlinear effect so far, in time order. */
-  readonly effects: readonly EffectOnset[];
-  /** Work spent so far against the run's work budget. */
-  readonly work: TwinWork;
-  /** Regime switches so far. */
-  readonly switches: TwinSwitches;
-  /**
-   * Integrates up to `until` (clamped to the horizon) and returns the new grid samples. With
-   * `limits`, returns early at an integrator step boundary once the deadline has passed (after
-   * at least one step, so every call makes progress); call again to go on from there.
-   */
-  advance(until: number, limits?: AdvanceLimits): TwinTrace;
-  /**
-   * Appends a forcing term starting at the current time (or later), for kicks. Returns the term as
-   * added, which the closed form can take by superposition, or field errors.
-   */
-  kick(term: KickTerm): Parsed<InputTerm>;
-}
-
-// State layout: angle, velocity, then for a continuous PID the integral of the error and the
-// derivative-filter state. A sampled controller keeps its state outside the integrator.
-/**
- * odex extrapolation columns (its default is 9). Each solve allocates tables of size ~2·k², and a
- * sampled loop solves once per sample: 6 columns cut that cost by a fifth in our measurements
- * while the steps the twin takes (≤ one chunk) never need a higher order.
- */
-export const EXTRAPOLATION_COLUMNS = 6;
+// Callers import the twin's types from here; they live in their own files so each stays small.
+export { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions, type TwinSettings } from './twin-settings';
+export type { KickTerm, TwinRun, TwinSamples, TwinStop, TwinSwitches, TwinTrace, TwinWork } from './twin-types';
+export { twinEffects, type EffectOnset, type TwinEffect } from './effect-onsets';
+export { EXTRAPOLATION_COLUMNS } from './twin-solver';
 
 /** Most points at which one integrator step is scanned for a regime event. */
 const MAX_EVENT_SCAN = 1000;
 
+// State layout: angle, velocity, then for a continuous PID the integral of the error and the
+// derivative-filter state. A sampled controller keeps its state outside the integrator.
 const ANGLE = 0;
 const VELOCITY = 1;
 const INTEGRAL = 2;
@@ -247,23 +92,20 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   let breakpointIndex = 0;
   let stop: TwinStop | null = null;
   let done = false;
-  /** Friction regime: +1 or −1 sliding in that direction, 0 held by static friction. */
-  let slip = 0;
-  let frictionEvents = 0;
+  const friction = initialFrictionState();
   /** Last accepted odex step, s; the first step of the next segment starts from it. */
   let lastStep = 1e-4;
-  /** Right-hand-side and event-function evaluations so far (the work budget's unit). */
-  let evaluations = 0;
+  const work: WorkSpent = { evaluations: 0 };
   /** The work budget by simulated time t (see TWIN_DEFAULTS.workBase). */
-  const allowance = (t: number) => o.workBase + o.workPerSecond * t + o.workPerSample * (nextIndex + nextSample);
-  const overBudget = (t: number) => evaluations > allowance(t);
+  const allowance = (t: number) => workAllowance(o, t, nextIndex + nextSample);
+  const overBudget = (t: number) => work.evaluations > allowance(t);
   /**
    * A stretch left at a step boundary when a deadline passed: where it began and the odex steps
    * spent on it, so the per-stretch step bound means the same whether or not it was interrupted.
    */
   let resumed: { from: number; steps: number } | null = null;
 
-  // Sampled controller: state, held torque request, the request waiting out a compute delay.
+  // Sampled controller: its law's state and the hold of its request (sampled-pid.ts).
   const gains: SampledPidGains = {
     kp,
     ki,
@@ -294,13 +136,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const eventsOn = frictionOn || windupOn;
   const noise = gaussianSource(nl.noiseSeed);
   let nextSample = 0;
-  let heldRequest = 0;
-  let pendingRequest = 0;
+  const hold = initialSampleHold();
 
-  const onsets = new Float64Array(twinEffects.length).fill(NaN);
-  const markOnset = (effect: number, t: number) => {
-    if (Number.isNaN(onsets[effect]!)) onsets[effect] = t;
-  };
+  // Each onset is kept the first time its effect acts (NaN until then); written as named stores
+  // because these checks run at every output sample and a keyed store by effect name measured slower.
+  const onsets = noOnsets();
 
   /** The continuous controller's D: filtered, or x′ itself. */
   const derivativeOf = (state: readonly number[], t: number, error: number): number => {
@@ -316,7 +156,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   /** Drive torque asked for at the joint before limit and dead band, N·m. */
   const requestedTorque = (state: readonly number[], t: number): number => {
     if (!closedLoop) return stretch.torque(t);
-    return sampled ? heldRequest : continuousRequest(state, t);
+    return sampled ? hold.held : continuousRequest(state, t);
   };
 
   /**
@@ -337,12 +177,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   /** θ′ and θ″ under a drive request, in the friction regime as it stands, into `into`. */
   const jointRates = (state: readonly number[], t: number, requested: number, into: number[]) => {
     const net = netTorque(state, t, requested);
-    if (frictionOn && slip === 0) {
+    if (frictionOn && friction.slip === 0) {
       into[ANGLE] = 0;
       into[VELOCITY] = 0;
     } else {
       into[ANGLE] = state[VELOCITY]!;
-      into[VELOCITY] = (frictionOn ? net - slip * nl.coulombFriction : net) / joint.inertia;
+      into[VELOCITY] = (frictionOn ? net - friction.slip * nl.coulombFriction : net) / joint.inertia;
     }
   };
 
@@ -370,7 +210,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
 
   const rates = new Array<number>(stateSize).fill(0);
   const rhs = (t: number, state: number[]): number[] => {
-    evaluations++;
+    work.evaluations++;
     const reference = continuousLoop ? stretch.reference(t) : 0;
     const requested = continuousLoop
       ? windup.mode === 'sliding'
@@ -388,26 +228,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     return rates;
   };
 
-  /**
-   * The friction event function: it turns positive when the regime must change.
-   * Why stick/slip cannot chatter: a slide starts only where |τ_net| > τs ≥ τc, so its
-   * acceleration (τ_net − s·τc)/J has the slide's sign and carries the velocity away from zero;
-   * a slide ends at exactly v = 0 and sticks only where |τ_net| ≤ τs, and stays stuck until the
-   * net torque has changed by a finite amount. Zeno-like hunting of a drive held at the
-   * breakaway threshold is bounded by maxFrictionEvents and the work budget.
-   */
-  const frictionEvent = (state: readonly number[], t: number, drive = driveRequest(state, t)): number => {
-    if (slip !== 0) return -slip * state[VELOCITY]!;
-    return Math.abs(netTorque(state, t, drive)) - nl.staticFriction;
-  };
+  /** The friction event at a state (friction-regime.ts); the net torque is needed only while held. */
+  const stickSlipEvent = (state: readonly number[], t: number, drive = driveRequest(state, t)): number =>
+    frictionEvent(friction.slip, state[VELOCITY]!, friction.slip === 0 ? netTorque(state, t, drive) : 0, nl.staticFriction);
 
   const chooseFrictionRegime = () => {
-    if (y[VELOCITY] !== 0) {
-      slip = Math.sign(y[VELOCITY]!);
-      return;
-    }
-    const net = netTorque(y, time, driveRequest(y, time));
-    slip = Math.abs(net) > nl.staticFriction ? Math.sign(net) : 0;
+    friction.slip = chooseSlip(y[VELOCITY]!, y[VELOCITY] !== 0 ? 0 : netTorque(y, time, driveRequest(y, time)), nl.staticFriction);
   };
 
   /** The anti-windup event function at a state: positive once the integrator's regime no longer holds. */
@@ -418,10 +244,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
 
   /** Whether a regime must change at a state: the friction's or the integrator's (the request computed once for both). */
   const regimeEnds = (state: readonly number[], t: number): boolean => {
-    if (!windupOn) return frictionEvent(state, t) > 0;
+    if (!windupOn) return stickSlipEvent(state, t) > 0;
     const error = stretch.reference(t) - state[ANGLE]!;
     const requested = pidRequest(pidGains, error, state[INTEGRAL]!, derivativeOf(state, t, error));
-    if (frictionOn && frictionEvent(state, t, windup.mode === 'sliding' ? windup.side * limit : requested) > 0) return true;
+    if (frictionOn && stickSlipEvent(state, t, windup.mode === 'sliding' ? windup.side * limit : requested) > 0) return true;
     return windupEvent(state, t, error, requested) > 0;
   };
 
@@ -465,11 +291,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const takeSample = (t: number) => {
     const disturbance = nl.noiseStdDev > 0 ? nl.noiseStdDev * noise.next() : 0;
     const measured = quantizeAngle(y[ANGLE]! + disturbance, nl.encoderCounts);
-    if (nl.noiseStdDev > 0) markOnset(6, t);
-    if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance) markOnset(5, t);
+    if (nl.noiseStdDev > 0 && Number.isNaN(onsets.noise)) onsets.noise = t;
+    if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance && Number.isNaN(onsets.quantization)) onsets.quantization = t;
     const request = sampledPidStep(pid, gains, stretch.reference(t), measured);
-    heldRequest = nl.computeDelay ? pendingRequest : request;
-    pendingRequest = request;
+    holdRequest(hold, request, nl.computeDelay);
   };
 
   /** Brings the run to time t with y the left limit there: jumps, controller sample, friction regime. */
@@ -504,30 +329,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     return Math.min(end, horizon);
   };
 
-  const outOfBounds = (state: readonly number[]) =>
-    !Number.isFinite(state[ANGLE]!) ||
-    !Number.isFinite(state[VELOCITY]!) ||
-    Math.abs(state[ANGLE]!) > o.angleBound ||
-    Math.abs(state[VELOCITY]!) > o.velocityBound;
+  const outOfBounds = (state: readonly number[]) => runaway(o, state[ANGLE]!, state[VELOCITY]!);
+  const boundMessage = (state: readonly number[], t: number) => runawayMessage(o, state[ANGLE]!, t);
 
-  const boundMessage = (state: readonly number[], t: number) =>
-    Math.abs(state[ANGLE]!) > o.angleBound || !Number.isFinite(state[ANGLE]!)
-      ? `angle left ±${o.angleBound} rad at t = ${t.toFixed(4)} s: the scenario runs away (unstable loop or unbounded forcing)`
-      : `velocity left ±${o.velocityBound} rad/s at t = ${t.toFixed(4)} s: the scenario runs away (unstable loop or unbounded forcing)`;
-
-  const solver = new Solver(stateSize);
-  solver.denseOutput = true;
-  solver.relativeTolerance = o.relativeTolerance;
-  solver.absoluteTolerance = o.absoluteTolerance;
-  solver.maxSteps = o.maxStepsPerChunk;
-  solver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
-  // Without grid points or events inside a segment the dense interpolant is not needed; this
-  // solver skips building it (a sampled loop at 1 ms with 1 ms output restarts 1000 times a second).
-  const plainSolver = new Solver(stateSize);
-  plainSolver.relativeTolerance = o.relativeTolerance;
-  plainSolver.absoluteTolerance = o.absoluteTolerance;
-  plainSolver.maxSteps = o.maxStepsPerChunk;
-  plainSolver.maxExtrapolationColumns = EXTRAPOLATION_COLUMNS;
+  const solver = createTwinSolver(stateSize, o, true);
+  const plainSolver = createTwinSolver(stateSize, o, false);
 
   const stepState = new Array<number>(stateSize).fill(0);
   const eventState = new Array<number>(stateSize).fill(0);
@@ -538,13 +344,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
    * turned (its sign at the ends differs), so the velocity may have dipped through zero and back.
    */
   const maySlideToRest = (startAcceleration: number, end: readonly number[], t: number) => {
-    if (slip * end[VELOCITY]! <= 0) return true;
+    if (friction.slip * end[VELOCITY]! <= 0) return true;
     const endAcceleration = rhs(t, end as number[])[VELOCITY]!;
     return startAcceleration * endAcceleration <= 0;
   };
 
-  const workMessage = (t: number) =>
-    `work budget: ${evaluations.toExponential(2).replace('e+', 'e')} evaluations by t = ${t.toFixed(4)} s, over the twin's allowance of ${o.workBase} + ${o.workPerSecond} per simulated second + ${o.workPerSample} per sample; the scenario is too stiff, or switches friction too often, for the twin to follow (check the gains against the inertia)`;
+  const overBudgetMessage = (t: number) => workMessage(o, work.evaluations, t);
 
   function advance(until: number, limits?: AdvanceLimits): TwinTrace {
     const target = Math.min(until, horizon);
@@ -552,36 +357,20 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     // The last odex call may end up to one chunk past the target; its grid points are kept.
     const lastWanted = Math.min(lastIndex, Math.floor((target + o.maxChunk) / dt + 1e-9));
     const capacity = Math.max(0, lastWanted - nextIndex + 1);
-    const out: TwinTrace = {
-      t: new Float64Array(capacity),
-      angle: new Float64Array(capacity),
-      velocity: new Float64Array(capacity),
-      controllerTorque: new Float64Array(capacity),
-      appliedTorque: new Float64Array(capacity),
-      saturating: new Uint8Array(capacity),
-      sticking: new Uint8Array(capacity),
-    };
-    let count = 0;
+    const recorder = new TraceRecorder(capacity);
     const emit = (t: number, state: readonly number[]) => {
       const requested = requestedTorque(state, t);
       const sliding = windup.mode === 'sliding';
       const drive = sliding ? windup.side * limit : requested;
       const applied = shapesDrive ? driveTorque(drive, limit, nl.deadBand) : requested;
       const saturating = sliding || Math.abs(requested) > limit;
-      const sticking = frictionOn && slip === 0;
-      out.t[count] = t;
-      out.angle[count] = state[ANGLE]!;
-      out.velocity[count] = state[VELOCITY]!;
-      out.controllerTorque[count] = closedLoop ? requested : 0;
-      out.appliedTorque[count] = applied;
-      out.saturating[count] = saturating ? 1 : 0;
-      out.sticking[count] = sticking ? 1 : 0;
-      if (saturating) markOnset(0, t);
-      if (nl.deadBand > 0 && requested !== 0) markOnset(1, t);
-      if (frictionOn && !sticking && nl.coulombFriction > 0) markOnset(2, t);
-      if (sticking && netTorque(state, t, drive) !== 0) markOnset(3, t);
-      if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0) markOnset(4, t);
-      count++;
+      const sticking = frictionOn && friction.slip === 0;
+      recorder.record(t, state[ANGLE]!, state[VELOCITY]!, closedLoop ? requested : 0, applied, saturating, sticking);
+      if (saturating && Number.isNaN(onsets.torqueLimit)) onsets.torqueLimit = t;
+      if (nl.deadBand > 0 && requested !== 0 && Number.isNaN(onsets.deadBand)) onsets.deadBand = t;
+      if (frictionOn && !sticking && nl.coulombFriction > 0 && Number.isNaN(onsets.friction)) onsets.friction = t;
+      if (sticking && netTorque(state, t, drive) !== 0 && Number.isNaN(onsets.stiction)) onsets.stiction = t;
+      if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0 && Number.isNaN(onsets.gravity)) onsets.gravity = t;
       nextIndex++;
     };
     const emitFromState = (upTo: number) => {
@@ -621,7 +410,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         let stepEnd = x;
         if (eventsOn) {
           const g = (t: number) => {
-            evaluations++;
+            work.evaluations++;
             for (let c = 0; c < stateSize; c++) eventState[c] = dense(c, t);
             return regimeEnds(eventState, t) ? 1 : -1;
           };
@@ -681,7 +470,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (time >= target) break;
       const end = nextStop();
       const segmentStart = time;
-      if (frictionOn && slip === 0 && !continuousLoop && stretch.torqueConstant) {
+      if (frictionOn && friction.slip === 0 && !continuousLoop && stretch.torqueConstant) {
         // Stuck, with a held (or no) controller torque and a torque channel constant between its
         // edges: nothing on the joint changes before `end`, so the state stays put exactly.
         while (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps) emit(gridTime(nextIndex), y);
@@ -695,7 +484,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       // redo the stretch with dense output when the end state says the slide may have ended.
       // (A sampled loop restarts at every sample, so this is most of its stretches; a continuous
       // loop with anti-windup regimes has few stretches and always looks for its events.)
-      const tryPlain = !gridInside && !windupOn && (!frictionOn || slip !== 0);
+      const tryPlain = !gridInside && !windupOn && (!frictionOn || friction.slip !== 0);
       const startAcceleration = tryPlain && frictionOn ? rhs(segmentStart, y)[VELOCITY]! : 0;
       let segment = integrateStretch(tryPlain ? plainSolver : solver, segmentStart, end);
       // A plain stretch left at the deadline is checked like a finished one: the slide may have ended inside.
@@ -712,7 +501,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       }
       if (halt === 'work') {
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
-        stopAt(eventTime, workMessage(eventTime));
+        stopAt(eventTime, overBudgetMessage(eventTime));
         break;
       }
       if (result.outcome === Outcome.MaxStepsExceeded) {
@@ -734,14 +523,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (halt === 'event') {
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
         // The same test the scan made at this state: a friction event, an integrator one, or both.
-        const frictionSwitch = frictionOn && frictionEvent(y, eventTime) > 0;
+        const frictionSwitch = frictionOn && stickSlipEvent(y, eventTime) > 0;
         // A slide ends exactly at rest; the bisection leaves |v| at roundoff level past zero.
-        if (frictionSwitch && slip !== 0) y[VELOCITY] = 0;
-        if (frictionSwitch && ++frictionEvents > o.maxFrictionEvents) {
-          stopAt(
-            eventTime,
-            `friction event bound: ${o.maxFrictionEvents} stick/slip switches by t = ${eventTime.toFixed(4)} s; the joint is being driven around the stiction threshold faster than the twin can follow`,
-          );
+        if (frictionSwitch && friction.slip !== 0) y[VELOCITY] = 0;
+        if (frictionSwitch && ++friction.events > o.maxFrictionEvents) {
+          stopAt(eventTime, frictionBoundMessage(o.maxFrictionEvents, eventTime));
           break;
         }
         arriveAt(eventTime);
@@ -751,21 +537,13 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       }
       if (!settleArrival()) break;
       if (overBudget(time)) {
-        stopAt(time, workMessage(time));
+        stopAt(time, overBudgetMessage(time));
         break;
       }
       if (pastDeadline()) break;
     }
     if (nextIndex > lastIndex) done = true;
-    return {
-      t: out.t.subarray(0, count),
-      angle: out.angle.subarray(0, count),
-      velocity: out.velocity.subarray(0, count),
-      controllerTorque: out.controllerTorque.subarray(0, count),
-      appliedTorque: out.appliedTorque.subarray(0, count),
-      saturating: out.saturating.subarray(0, count),
-      sticking: out.sticking.subarray(0, count),
-    };
+    return recorder.trace();
   }
 
   function stopAt(t: number, message: string) {
@@ -775,24 +553,9 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   }
 
   function kick(term: KickTerm): Parsed<InputTerm> {
-    if (done) return { ok: false, errors: [{ field: '', message: `the run has ended at t = ${time.toFixed(4)} s; a kick needs a live run` }] };
-    const parsed = parseWith(inputTermSchema, { ...term, delay: term.delay ?? time });
-    if (!parsed.ok) return parsed;
-    const added = parsed.value;
-    if (added.delay < time - mergeEps) {
-      return { ok: false, errors: [{ field: 'delay', message: `a kick cannot start at t = ${added.delay} s: the run is already at t = ${time} s` }] };
-    }
-    if (added.delay >= horizon) {
-      return { ok: false, errors: [{ field: 'delay', message: `a kick must start before the horizon (${horizon} s), got ${added.delay} s` }] };
-    }
-    if (added.channel === 'reference' && !closedLoop) {
-      return { ok: false, errors: [{ field: 'channel', message: 'a reference kick needs a closed loop (controller.mode "pid")' }] };
-    }
-    if (inputs.length >= MAX_INPUT_TERMS) {
-      return { ok: false, errors: [{ field: '', message: `at most ${MAX_INPUT_TERMS} input terms are allowed in one run, kicks included` }] };
-    }
-    // A kick a roundoff before now starts now, so it is not lost between two stops.
-    if (added.delay < time) added.delay = time;
+    const admitted = admitKick(term, { done, time, horizon, closedLoop, termCount: inputs.length, mergeEps });
+    if (!admitted.ok) return admitted;
+    const added = admitted.value;
     inputs.push(added);
     forcing = forcingTermsOf({ ...scenario, inputs });
     if (started && added.delay === time) {
@@ -829,10 +592,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       return effectOnsets(onsets, scenario);
     },
     get work() {
-      return { evaluations, allowance: allowance(time) };
+      return { evaluations: work.evaluations, allowance: allowance(time) };
     },
     get switches() {
-      return { friction: frictionEvents, integrator: windupSwitches };
+      return { friction: friction.events, integrator: windupSwitches };
     },
     horizon,
     dt,
@@ -841,23 +604,6 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   };
 }
 
-function effectOnsets(onsets: Float64Array, scenario: Scenario): EffectOnset[] {
-  const nl = resolveNonlinear(scenario.nonlinear);
-  const describe: Record<TwinEffect, string> = {
-    torqueLimit: `torque limit ±${nl.torqueLimit} N·m reached`,
-    deadBand: `drive dead band ±${nl.deadBand} N·m engaged`,
-    friction: `Coulomb friction ${nl.coulombFriction} N·m sliding`,
-    stiction: `static friction (breakaway ${nl.staticFriction} N·m) holding the joint`,
-    gravity: `gravity load m·g·l = ${+nl.gravityTorque.toPrecision(6)} N·m acting`,
-    quantization: `encoder quantization (${nl.encoderCounts} counts/rev) changed the measurement`,
-    noise: `measurement noise (σ = ${nl.noiseStdDev} rad) present`,
-  };
-  const list: EffectOnset[] = [];
-  twinEffects.forEach((effect, i) => {
-    if (!Number.isNaN(onsets[i]!)) list.push({ effect, time: onsets[i]!, description: describe[effect] });
-  });
-  return list.sort((a, b) => a.time - b.time);
-}
 
 /**
  * Runs the twin over the whole horizon.
