@@ -1,9 +1,9 @@
 import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, afterNextRender, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import type { FrequencyResponse } from '@kinetwin/shared/frequency/frequency-response';
 import { bodeFigure } from './bode-figure';
+import { LazyPlot } from './lazy-plot';
 import type { MeasuredOverlay } from './sweep-readout';
 
-type Plotly = typeof import('plotly.js-dist-min').default;
 
 /**
  * The Bode chart of the frequency panel: magnitude above phase on one log frequency axis, drawn
@@ -35,57 +35,25 @@ export class BodeChart {
   private readonly failureText = signal<string | null>(null);
   protected readonly failure = this.failureText.asReadonly();
 
-  private plotly: Plotly | null = null;
-  private destroyed = false;
-  private drawn: { response: FrequencyResponse; measured: MeasuredOverlay | null } | null = null;
-  /** Plot calls run one after another; a queued draw takes the newest response when it runs. */
-  private queue: Promise<void> = Promise.resolve();
-  private drawQueued = false;
+  private readonly lazy = new LazyPlot(
+    () => this.plot().nativeElement,
+    () => {
+      const response = untracked(this.response);
+      const measured = untracked(this.measured);
+      return response === null ? null : { key: [response, measured], figure: () => bodeFigure(response, measured) };
+    },
+    (traces) => this.drawnTraces.set(traces),
+    (message) => this.failureText.set(message),
+    'Bode chart',
+  );
 
   constructor() {
-    afterNextRender(async () => {
-      try {
-        this.plotly = (await import('plotly.js-dist-min')).default;
-      } catch {
-        this.failureText.set('The Bode chart could not be loaded. Reload the page to try again.');
-        return;
-      }
-      this.scheduleDraw();
-    });
-
+    afterNextRender(() => this.lazy.load());
     effect(() => {
       this.response();
       this.measured();
-      this.scheduleDraw();
+      this.lazy.request();
     });
-
-    inject(DestroyRef).onDestroy(() => {
-      this.destroyed = true;
-      if (this.plotly) this.plotly.purge(this.plot().nativeElement);
-    });
-  }
-
-  private scheduleDraw(): void {
-    if (!this.plotly || this.drawQueued) return;
-    this.drawQueued = true;
-    this.queue = this.queue
-      .then(() => {
-        this.drawQueued = false;
-        return this.draw();
-      })
-      .catch((error: unknown) => {
-        this.failureText.set(`The Bode chart stopped drawing: ${error instanceof Error ? error.message : String(error)}`);
-      });
-  }
-
-  private async draw(): Promise<void> {
-    const plotly = this.plotly;
-    const response = untracked(this.response);
-    const measured = untracked(this.measured);
-    if (!plotly || this.destroyed || response === null || (response === this.drawn?.response && measured === this.drawn.measured)) return;
-    const figure = bodeFigure(response, measured);
-    await plotly.react(this.plot().nativeElement, figure.data, figure.layout, { responsive: true, displaylogo: false });
-    this.drawn = { response, measured };
-    this.drawnTraces.set(figure.data.length);
+    inject(DestroyRef).onDestroy(() => this.lazy.destroy());
   }
 }

@@ -1,8 +1,8 @@
 import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, afterNextRender, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import type { RootLocus } from '@kinetwin/shared/frequency/root-locus';
+import { LazyPlot } from './lazy-plot';
 import { locusFigure } from './root-locus-figure';
 
-type Plotly = typeof import('plotly.js-dist-min').default;
 
 /**
  * The s-plane plot of the root-locus panel, drawn with Plotly imported on first use (as the
@@ -31,55 +31,23 @@ export class RootLocusChart {
   private readonly failureText = signal<string | null>(null);
   protected readonly failure = this.failureText.asReadonly();
 
-  private plotly: Plotly | null = null;
-  private destroyed = false;
-  private drawn: RootLocus | null = null;
-  /** Plot calls run one after another; a queued draw takes the newest locus when it runs. */
-  private queue: Promise<void> = Promise.resolve();
-  private drawQueued = false;
+  private readonly lazy = new LazyPlot(
+    () => this.plot().nativeElement,
+    () => {
+      const locus = untracked(this.locus);
+      return locus === null ? null : { key: [locus], figure: () => locusFigure(locus) };
+    },
+    (traces) => this.drawnTraces.set(traces),
+    (message) => this.failureText.set(message),
+    'root-locus plot',
+  );
 
   constructor() {
-    afterNextRender(async () => {
-      try {
-        this.plotly = (await import('plotly.js-dist-min')).default;
-      } catch {
-        this.failureText.set('The root-locus plot could not be loaded. Reload the page to try again.');
-        return;
-      }
-      this.scheduleDraw();
-    });
-
+    afterNextRender(() => this.lazy.load());
     effect(() => {
       this.locus();
-      this.scheduleDraw();
+      this.lazy.request();
     });
-
-    inject(DestroyRef).onDestroy(() => {
-      this.destroyed = true;
-      if (this.plotly) this.plotly.purge(this.plot().nativeElement);
-    });
-  }
-
-  private scheduleDraw(): void {
-    if (!this.plotly || this.drawQueued) return;
-    this.drawQueued = true;
-    this.queue = this.queue
-      .then(() => {
-        this.drawQueued = false;
-        return this.draw();
-      })
-      .catch((error: unknown) => {
-        this.failureText.set(`The root-locus plot stopped drawing: ${error instanceof Error ? error.message : String(error)}`);
-      });
-  }
-
-  private async draw(): Promise<void> {
-    const plotly = this.plotly;
-    const locus = untracked(this.locus);
-    if (!plotly || this.destroyed || locus === null || locus === this.drawn) return;
-    const figure = locusFigure(locus);
-    await plotly.react(this.plot().nativeElement, figure.data, figure.layout, { responsive: true, displaylogo: false });
-    this.drawn = locus;
-    this.drawnTraces.set(figure.data.length);
+    inject(DestroyRef).onDestroy(() => this.lazy.destroy());
   }
 }
