@@ -1,13 +1,10 @@
 import fc from 'fast-check';
-import { io, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Ack } from '../../shared/protocol/ack';
-import { MAX_RUN_EVENTS_PER_SECOND, RUN_CLIENT_EVENTS, RUN_NAMESPACE, type ClientToServerEvents, type RunFrame, type ServerToClientEvents } from '../../shared/protocol/run-events';
+import { MAX_RUN_EVENTS_PER_SECOND, RUN_CLIENT_EVENTS, type RunFrame } from '../../shared/protocol/run-events';
+import { runSockets, type RunClient } from '../testing/run-sockets';
 import { createTestTeam, demoScenarioDocument, readJson, startTestServer, type TestServer } from '../testing/test-server';
 import { SERVER_ERROR } from './run-event-pipeline';
 
-type Client = Socket<ServerToClientEvents, ClientToServerEvents>;
-type Emit = (event: string, ...args: unknown[]) => void;
 
 /** Cases per run of the walk; fixed seed, so a failure names its case and repeats exactly. */
 const CASES = 240;
@@ -34,7 +31,6 @@ describe('socket event fuzzing: every /runs event with hostile payloads', () => 
   let t: TestServer;
   let cookie: string;
   let scenarioId: number;
-  const clients: Client[] = [];
 
   beforeAll(async () => {
     t = await startTestServer();
@@ -43,18 +39,11 @@ describe('socket event fuzzing: every /runs event with hostile payloads', () => 
     scenarioId = (await readJson(await team.members.engineer.api.post('/api/scenarios', { scenario: demoScenarioDocument(), note: 'fuzz' }))).id;
   });
   afterAll(async () => {
-    clients.forEach((c) => c.disconnect());
+    disconnectAll();
     await t.close();
   });
 
-  const connect = () =>
-    new Promise<Client>((resolve, reject) => {
-      const client: Client = io(`${t.baseUrl}${RUN_NAMESPACE}`, { transports: ['websocket'], extraHeaders: { cookie }, reconnection: false });
-      clients.push(client);
-      client.once('connect', () => resolve(client));
-      client.once('connect_error', reject);
-    });
-  const ask = (client: Client, event: string, ...args: unknown[]) => new Promise<Ack<unknown>>((resolve) => (client.emit as Emit)(event, ...args, resolve));
+  const { connect, ask, tell, disconnectAll } = runSockets(() => t.baseUrl, () => cookie);
 
   it('answers every event, never with a server error, emits no non-finite number, and keeps serving', async () => {
     const client = await connect();

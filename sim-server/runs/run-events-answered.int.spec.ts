@@ -1,19 +1,15 @@
-import { io, type Socket } from 'socket.io-client';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { Ack } from '../../shared/protocol/ack';
 import { MAX_ID } from '../../shared/protocol/library-api';
-import { RUN_CLIENT_EVENTS, RUN_NAMESPACE, type ClientToServerEvents, type RunControlState, type ServerToClientEvents } from '../../shared/protocol/run-events';
+import { RUN_CLIENT_EVENTS, type RunControlState } from '../../shared/protocol/run-events';
+import { runSockets, type RunClient } from '../testing/run-sockets';
 import { createTestTeam, demoScenarioDocument, readJson, startTestServer, type TestServer } from '../testing/test-server';
 import { missingPayload, unknownEvent } from './run-event-pipeline';
 
-type Client = Socket<ServerToClientEvents, ClientToServerEvents>;
-type Emit = (event: string, ...args: unknown[]) => void;
 
 describe('every socket event that asks for an answer gets one', () => {
   let t: TestServer;
   let cookie: string;
   let scenarioId: number;
-  const clients: Client[] = [];
 
   beforeAll(async () => {
     t = await startTestServer();
@@ -22,19 +18,11 @@ describe('every socket event that asks for an answer gets one', () => {
     scenarioId = (await readJson(await team.members.engineer.api.post('/api/scenarios', { scenario: demoScenarioDocument(), note: 'answers' }))).id;
   });
   afterAll(async () => {
-    clients.forEach((c) => c.disconnect());
+    disconnectAll();
     await t.close();
   });
 
-  const connect = () =>
-    new Promise<Client>((resolve, reject) => {
-      const client: Client = io(`${t.baseUrl}${RUN_NAMESPACE}`, { transports: ['websocket'], extraHeaders: { cookie }, reconnection: false });
-      clients.push(client);
-      client.once('connect', () => resolve(client));
-      client.once('connect_error', reject);
-    });
-  /** Emits `args` and resolves with the acknowledgement, which socket.io always passes last. */
-  const ask = (client: Client, event: string, ...args: unknown[]) => new Promise<Ack<unknown>>((resolve) => (client.emit as Emit)(event, ...args, resolve));
+  const { connect, ask, tell, disconnectAll } = runSockets(() => t.baseUrl, () => cookie);
 
   it('bounds scenarioId to PostgreSQL integer: one past it is a field error, the largest is looked up', async () => {
     const client = await connect();
@@ -59,8 +47,8 @@ describe('every socket event that asks for an answer gets one', () => {
     expect(await ask(client, 'run:launch', { scenarioId })).toEqual({ status: 'error', errors: unknownEvent('run:launch', RUN_CLIENT_EVENTS) });
     expect(await ask(client, 'constructor', {})).toMatchObject({ status: 'error', errors: [{ field: 'event' }] });
     expect(await ask(client, '__proto__')).toMatchObject({ status: 'error', errors: [{ field: 'event' }] });
-    (client.emit as Emit)('no:such:event', { x: 1 });
-    (client.emit as Emit)('run:start', { scenarioId: -1 });
+    tell(client, 'no:such:event', { x: 1 });
+    tell(client, 'run:start', { scenarioId: -1 });
     // Still served, in order, after the events that asked nothing back.
     expect((await ask(client, 'run:start', { scenarioId, speed: 0 })).status).toBe('ok');
     expect(heard.length).toBeGreaterThanOrEqual(4);
