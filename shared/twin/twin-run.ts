@@ -1,4 +1,3 @@
-import { Outcome, type Solver } from 'odex';
 import { resolveNonlinear } from '../scenario/nonlinear-schema';
 import type { InputTerm, Scenario } from '../scenario/scenario-schema';
 import { describeFieldErrors, type Parsed } from '../validation/field-errors';
@@ -25,7 +24,7 @@ import { holdRequest, initialSampledPidState, initialSampleHold, sampledPidStep,
 import { gaussianSource } from './seeded-noise';
 import { effectOnsets, noOnsets, type EffectOnset } from './effect-onsets';
 import { TraceRecorder } from './trace-recorder';
-import { createTwinSolver } from './twin-solver';
+import { createTwinSolver, type DenseState, type StepObserver, type StretchResult, type TwinSolver } from './twin-solver';
 import { twinScenarioErrors } from './twin-scenario-errors';
 import { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions } from './twin-settings';
 import type { KickTerm, TwinRun, TwinStop, TwinTrace } from './twin-types';
@@ -35,7 +34,16 @@ import { workAllowance, workMessage, type WorkSpent } from './work-budget';
 export { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions, type TwinSettings } from './twin-settings';
 export type { KickTerm, TwinRun, TwinSamples, TwinStop, TwinSwitches, TwinTrace, TwinWork } from './twin-types';
 export { twinEffects, type EffectOnset, type TwinEffect } from './effect-onsets';
-export { EXTRAPOLATION_COLUMNS } from './twin-solver';
+
+/** Why a stretch stopped before its end, if it did. */
+type StretchHalt = 'bound' | 'event' | 'work' | 'deadline';
+
+/** A stretch as integrated: the solver's result, the halt, and the event or halt time. */
+interface IntegratedStretch {
+  result: StretchResult;
+  halt: StretchHalt | null;
+  eventTime: number;
+}
 
 /** Most points at which one integrator step is scanned for a regime event. */
 const MAX_EVENT_SCAN = 1000;
@@ -100,10 +108,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const allowance = (t: number) => workAllowance(o, t, nextIndex + nextSample);
   const overBudget = (t: number) => work.evaluations > allowance(t);
   /**
-   * A stretch left at a step boundary when a deadline passed: where it began and the odex steps
-   * spent on it, so the per-stretch step bound means the same whether or not it was interrupted.
+   * A stretch left at a step boundary when a deadline passed: where it began, the odex steps
+   * spent on it and where it ends, so the per-stretch step bound means the same whether or not
+   * it was interrupted.
    */
-  let resumed: { from: number; steps: number } | null = null;
+  let resumed: { from: number; steps: number; end: number } | null = null;
 
   // Sampled controller: its law's state and the hold of its request (sampled-pid.ts).
   const gains: SampledPidGains = {
@@ -208,8 +217,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     return slidingRate(state, t, error, probeRates[ANGLE]!, probeRates[VELOCITY]!);
   };
 
-  const rates = new Array<number>(stateSize).fill(0);
-  const rhs = (t: number, state: number[]): number[] => {
+  /** The system's rates into `rates` (odex's own array while it integrates). */
+  const rhsInto = (t: number, state: number[], rates: number[]): void => {
     work.evaluations++;
     const reference = continuousLoop ? stretch.reference(t) : 0;
     const requested = continuousLoop
@@ -225,6 +234,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       rates[INTEGRAL] = mode === 'integrating' ? error : integralRate(windup, error, mode === 'sliding' ? slidingRate(state, t, error, rates[ANGLE]!, rates[VELOCITY]!) : 0);
       if (stateSize > FILTER) rates[FILTER] = ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
     }
+  };
+  const rates = new Array<number>(stateSize).fill(0);
+  const rhs = (t: number, state: number[]): number[] => {
+    rhsInto(t, state, rates);
     return rates;
   };
 
@@ -332,8 +345,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const outOfBounds = (state: readonly number[]) => runaway(o, state[ANGLE]!, state[VELOCITY]!);
   const boundMessage = (state: readonly number[], t: number) => runawayMessage(o, state[ANGLE]!, t);
 
-  const solver = createTwinSolver(stateSize, o, true);
-  const plainSolver = createTwinSolver(stateSize, o, false);
+  const solver = createTwinSolver(rhsInto, stateSize, o, true);
+  const plainSolver = createTwinSolver(rhsInto, stateSize, o, false);
 
   const stepState = new Array<number>(stateSize).fill(0);
   const eventState = new Array<number>(stateSize).fill(0);
@@ -377,74 +390,93 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       while (nextIndex <= lastWanted && gridTime(nextIndex) <= upTo + eps) emit(gridTime(nextIndex), y);
     };
 
+    // The stretch being integrated, shared with the step observer (made once per advance, not per stretch).
+    let halt: StretchHalt | null = null;
+    let eventTime = 0;
+    let stretchEnd = 0;
+    let stepDense: DenseState | null = null;
+    // Stops at a step boundary keep the state there.
+    const haltHere = (why: 'work' | 'deadline', x: number, state: readonly number[]) => {
+      halt = why;
+      eventTime = x;
+      for (let c = 0; c < stateSize; c++) eventState[c] = state[c]!;
+      return false;
+    };
+    const g = (t: number) => {
+      work.evaluations++;
+      for (let c = 0; c < stateSize; c++) eventState[c] = stepDense!(c, t);
+      return regimeEnds(eventState, t) ? 1 : -1;
+    };
+    const observeStep: StepObserver = (xOld, x, state, dense) => {
+      lastStep = x - xOld;
+      if (outOfBounds(state)) {
+        halt = 'bound';
+        eventTime = x;
+        return false;
+      }
+      if (!dense) {
+        if (overBudget(x)) return haltHere('work', x, state);
+        if (x < stretchEnd - eps && pastDeadline()) return haltHere('deadline', x, state);
+        return;
+      }
+      stepDense = dense;
+      let stepEnd = x;
+      if (eventsOn) {
+        // Scan the step at output spacing (at least 4 pieces, at most MAX_EVENT_SCAN): a long
+        // step can carry the velocity through zero and back, which its end alone would not show.
+        const span = x - xOld;
+        const pieces = Math.min(MAX_EVENT_SCAN, Math.max(4, Math.ceil(span / dt)));
+        let previous = xOld;
+        for (let j = 1; j <= pieces; j++) {
+          const tj = j === pieces ? x : xOld + (span * j) / pieces;
+          if (g(tj) > 0) {
+            eventTime = firstPositive(g, previous, tj);
+            for (let c = 0; c < stateSize; c++) eventState[c] = dense(c, eventTime);
+            halt = 'event';
+            stepEnd = eventTime;
+            break;
+          }
+          previous = tj;
+        }
+      }
+      // Grid points inside the step; one landing on the segment's end is emitted after the
+      // restart from the state there (after any jump), so the value at a breakpoint is its right limit.
+      const lastInside = Math.min(stepEnd, stretchEnd) - eps;
+      while (nextIndex <= lastWanted && gridTime(nextIndex) <= x && gridTime(nextIndex) < lastInside) {
+        const tk = gridTime(nextIndex);
+        for (let c = 0; c < stateSize; c++) stepState[c] = dense(c, tk);
+        emit(tk, stepState);
+      }
+      if (halt === 'event') return false;
+      if (overBudget(x)) return haltHere('work', x, state);
+      if (x < stretchEnd - eps && pastDeadline()) return haltHere('deadline', x, state);
+      return undefined;
+    };
+
     /**
-     * One odex call over [start, end]: emits the grid points inside it and stops at a bound or at the
-     * first regime event (found on the dense output, which `active` must provide for an event).
+     * A stretch without grid points or events taken in one step when odex accepts it (a sample of
+     * a sampled loop, once the steps have grown to the period), else null.
      */
-    const integrateStretch = (active: Solver, start: number, end: number) => {
-      let halt: 'bound' | 'event' | 'work' | 'deadline' | null = null;
-      let eventTime = end;
+    const wholeStretch = (start: number, end: number): IntegratedStretch | null => {
+      const state = plainSolver.wholeStep(start, y, end);
+      if (state === null) return null;
+      const result: StretchResult = { outcome: 'converged', y: state, x: end, steps: 1 };
+      if (outOfBounds(state)) return { result: { ...result, outcome: 'halted' }, halt: 'bound', eventTime: end };
+      return { result, halt: null, eventTime: end };
+    };
+
+    /**
+     * One integration over [start, end]: emits the grid points inside it and stops at a bound or at
+     * the first regime event (found on the dense output, which `active` must provide for an event).
+     */
+    const integrateStretch = (active: TwinSolver, start: number, end: number): IntegratedStretch => {
+      halt = null;
+      eventTime = end;
+      stretchEnd = end;
       // Start with the last accepted step: restarting from odex's default 1e-4 s at every chunk
       // costs more steps than the chunk itself needs.
-      active.initialStepSize = Math.min(lastStep, end - start);
-      active.maxSteps = Math.max(1, o.maxStepsPerChunk - (resumed?.steps ?? 0));
-      const result = active.solve(rhs, start, y.slice(), end, (step, xOld, x, state, dense) => {
-        // Stops at a step boundary keep the state there (odex's result then reports the target).
-        const haltHere = (why: 'work' | 'deadline') => {
-          halt = why;
-          eventTime = x;
-          for (let c = 0; c < stateSize; c++) eventState[c] = state[c]!;
-          return false;
-        };
-        if (step === 1) return;
-        lastStep = x - xOld;
-        if (outOfBounds(state)) {
-          halt = 'bound';
-          return false;
-        }
-        if (!dense) {
-          if (overBudget(x)) return haltHere('work');
-          if (x < end - eps && pastDeadline()) return haltHere('deadline');
-          return;
-        }
-        let stepEnd = x;
-        if (eventsOn) {
-          const g = (t: number) => {
-            work.evaluations++;
-            for (let c = 0; c < stateSize; c++) eventState[c] = dense(c, t);
-            return regimeEnds(eventState, t) ? 1 : -1;
-          };
-          // Scan the step at output spacing (at least 4 pieces, at most MAX_EVENT_SCAN): a long
-          // step can carry the velocity through zero and back, which its end alone would not show.
-          const span = x - xOld;
-          const pieces = Math.min(MAX_EVENT_SCAN, Math.max(4, Math.ceil(span / dt)));
-          let previous = xOld;
-          for (let j = 1; j <= pieces; j++) {
-            const tj = j === pieces ? x : xOld + (span * j) / pieces;
-            if (g(tj) > 0) {
-              eventTime = firstPositive(g, previous, tj);
-              for (let c = 0; c < stateSize; c++) eventState[c] = dense(c, eventTime);
-              halt = 'event';
-              stepEnd = eventTime;
-              break;
-            }
-            previous = tj;
-          }
-        }
-        // Grid points inside the step; one landing on the segment's end is emitted after the
-        // restart from the state there (after any jump), so the value at a breakpoint is its right limit.
-        const lastInside = Math.min(stepEnd, end) - eps;
-        while (nextIndex <= lastWanted && gridTime(nextIndex) <= x && gridTime(nextIndex) < lastInside) {
-          const tk = gridTime(nextIndex);
-          for (let c = 0; c < stateSize; c++) stepState[c] = dense(c, tk);
-          emit(tk, stepState);
-        }
-        if (halt === 'event') return false;
-        if (overBudget(x)) return haltHere('work');
-        if (x < end - eps && pastDeadline()) return haltHere('deadline');
-        return undefined;
-      });
-      return { result, halt: halt as 'bound' | 'event' | 'work' | 'deadline' | null, eventTime };
+      const result = active.stretch(start, y, end, Math.min(lastStep, end - start), Math.max(1, o.maxStepsPerChunk - (resumed?.steps ?? 0)), observeStep);
+      return { result, halt: halt as StretchHalt | null, eventTime };
     };
 
     /** After arriving at the end of a stretch: false when a bound stopped the run there. */
@@ -468,7 +500,9 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     while (!done && nextIndex <= lastIndex) {
       emitFromState(time);
       if (time >= target) break;
-      const end = nextStop();
+      // A resumed stretch keeps its end (an edge added by a kick since may come first), so its
+      // step bound covers one stretch however often a deadline cut it.
+      const end = resumed ? Math.min(resumed.end, nextStop()) : nextStop();
       const segmentStart = time;
       if (frictionOn && friction.slip === 0 && !continuousLoop && stretch.torqueConstant) {
         // Stuck, with a held (or no) controller torque and a torque channel constant between its
@@ -486,17 +520,19 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       // loop with anti-windup regimes has few stretches and always looks for its events.)
       const tryPlain = !gridInside && !windupOn && (!frictionOn || friction.slip !== 0);
       const startAcceleration = tryPlain && frictionOn ? rhs(segmentStart, y)[VELOCITY]! : 0;
-      let segment = integrateStretch(tryPlain ? plainSolver : solver, segmentStart, end);
+      // odex's own start takes at most half a stretch, so steps of half its length say it is smooth there.
+      let segment: IntegratedStretch | null = tryPlain && 2 * lastStep >= end - segmentStart ? wholeStretch(segmentStart, end) : null;
+      segment ??= integrateStretch(tryPlain ? plainSolver : solver, segmentStart, end);
       // A plain stretch left at the deadline is checked like a finished one: the slide may have ended inside.
       const plainEnd = segment.halt === 'deadline' ? { y: eventState, t: segment.eventTime } : { y: segment.result.y, t: end };
-      const plainDone = segment.halt === null ? segment.result.outcome === Outcome.Converged : segment.halt === 'deadline';
+      const plainDone = segment.halt === null ? segment.result.outcome === 'converged' : segment.halt === 'deadline';
       if (tryPlain && frictionOn && plainDone && maySlideToRest(startAcceleration, plainEnd.y, plainEnd.t)) {
         segment = integrateStretch(solver, segmentStart, end);
       }
       const { result, halt, eventTime } = segment;
       const stretchFrom = resumed?.from ?? segmentStart;
       if (halt === 'bound') {
-        stopAt(result.xEnd, boundMessage(result.y, result.xEnd));
+        stopAt(result.x, boundMessage(result.y, result.x));
         break;
       }
       if (halt === 'work') {
@@ -504,7 +540,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         stopAt(eventTime, overBudgetMessage(eventTime));
         break;
       }
-      if (result.outcome === Outcome.MaxStepsExceeded) {
+      if (result.outcome === 'max-steps') {
         stopAt(
           stretchFrom,
           `integrator work bound: odex used its ${o.maxStepsPerChunk} steps between t = ${stretchFrom.toFixed(4)} s and ${end.toFixed(4)} s; the scenario is too stiff or fast for the twin at these tolerances`,
@@ -515,7 +551,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         // Left at a step boundary inside the stretch: no edge, sample or event lies before it,
         // so the run goes on from the state there without arriving anywhere.
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
-        resumed = { from: stretchFrom, steps: (resumed?.steps ?? 0) + result.nStep };
+        resumed = { from: stretchFrom, steps: (resumed?.steps ?? 0) + result.steps, end };
         time = eventTime;
         break;
       }

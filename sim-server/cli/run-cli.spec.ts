@@ -262,10 +262,14 @@ describe('runCli', () => {
     expect(m.err()).toContain(field);
   });
 
-  it('stops the twin of a grinding scenario at the work budget and says so, keeping the rows up to there', async () => {
+  it('stops the twin of a grinding scenario at a bound and says so, keeping the rows up to there', async () => {
     const m = memoryIo(files);
     expect(await runCli(['response', 'grind.json', '--method', 'sim', '--dt', '0.001'], m.io)).toBe(3);
-    expect(m.err()).toMatch(/^kinetwin: the twin stopped early at t = 0\.\d{4} s of \S+ s: work budget: .* evaluations by t = 0\.\d{4} s, over the twin's allowance/);
+    // Which bound the grind meets first (its work budget, or friction switching every few
+    // samples of the 1 µs loop) depends on how cheaply the twin takes a sample; both name a time.
+    expect(m.err()).toMatch(
+      /^kinetwin: the twin stopped early at t = 0\.\d{4} s of \S+ s: (work budget: .* evaluations by t = 0\.\d{4} s, over the twin's allowance|friction event bound: \d+ stick\/slip switches by t = 0\.\d{4} s)/,
+    );
     const rows = m.out().trim().split('\n');
     expect(rows.length).toBeGreaterThan(200);
     expect(rows.length).toBeLessThan(3002);
