@@ -1,29 +1,19 @@
 import { resolveNonlinear } from '../scenario/nonlinear-schema';
 import type { InputTerm, Scenario } from '../scenario/scenario-schema';
 import { describeFieldErrors, type Parsed } from '../validation/field-errors';
-import {
-  chooseIntegratorRegime,
-  frozenRequestRate,
-  hasWindupRegimes,
-  integralOnLimit,
-  integralRate,
-  integratorEvent,
-  onLimit,
-  pidRequest,
-  slidingIntegralRate,
-  type ContinuousPidGains,
-  type IntegratorRegime,
-} from './continuous-pid';
+import { hasWindupRegimes, integralRate, pidRequest, type ContinuousPidGains } from './continuous-pid';
 import { firstPositive } from './event-bisection';
-import { chooseSlip, frictionBoundMessage, frictionEvent, initialFrictionState } from './friction-regime';
-import { forcingTermsOf, type ForcingStretch, type ForcingTerms } from './forcing-terms';
+import { chooseSlip, frictionBoundMessage, frictionEvent } from './friction-regime';
+import { forcingTermsOf, type ForcingTerms } from './forcing-terms';
 import { driveTorque, gravityTorque, quantizeAngle } from './joint-effects';
 import { admitKick } from './kick-rule';
 import { boundMessage as runawayMessage, outOfBounds as runaway } from './run-bounds';
-import { holdRequest, initialSampledPidState, initialSampleHold, sampledPidStep, type SampledPidGains } from './sampled-pid';
+import { holdRequest, sampledPidStep, type SampledPidGains } from './sampled-pid';
 import { gaussianSource } from './seeded-noise';
-import { effectOnsets, noOnsets, type EffectOnset } from './effect-onsets';
+import { effectOnsets, type EffectOnset } from './effect-onsets';
 import { TraceRecorder } from './trace-recorder';
+import { createContinuousLoop } from './continuous-loop';
+import { ANGLE, INTEGRAL, FILTER, VELOCITY, initialRunState } from './twin-run-state';
 import { createTwinSolver, type DenseState, type StepObserver, type StretchResult, type TwinSolver } from './twin-solver';
 import { twinScenarioErrors } from './twin-scenario-errors';
 import { TWIN_DEFAULTS, type AdvanceLimits, type TwinOptions } from './twin-settings';
@@ -48,12 +38,6 @@ interface IntegratedStretch {
 /** Most points at which one integrator step is scanned for a regime event. */
 const MAX_EVENT_SCAN = 1000;
 
-// State layout: angle, velocity, then for a continuous PID the integral of the error and the
-// derivative-filter state. A sampled controller keeps its state outside the integrator.
-const ANGLE = 0;
-const VELOCITY = 1;
-const INTEGRAL = 2;
-const FILTER = 3;
 
 /**
  * Starts a twin run of the joint, its controller and the effects of its `nonlinear` block.
@@ -86,33 +70,22 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
   const mergeEps = 1e-9 * Math.min(dt, sampled ? period : dt);
   const gridTime = (k: number) => k * dt;
 
-  const inputs: InputTerm[] = scenario.inputs.slice();
-  let forcing: ForcingTerms = forcingTermsOf(scenario);
-  /** The terms acting from the last breakpoint reached until the next; rebuilt at each breakpoint. */
-  let stretch: ForcingStretch = forcing.stretchFrom(0, mergeEps);
   // The loop states are integrated only where they act: the integral with ki ≠ 0, the filter with
   // Tf > 0 (which keeps the integral slot too, the layout being fixed). Every state costs odex work.
   const stateSize = !continuousLoop ? 2 : tf > 0 ? 4 : ki !== 0 ? 3 : 2;
-  const y: number[] = [scenario.initial.angle, scenario.initial.velocity, 0, -scenario.initial.angle].slice(0, stateSize);
-  let time = 0;
-  let started = false;
-  let nextIndex = 0;
-  let breakpointIndex = 0;
-  let stop: TwinStop | null = null;
-  let done = false;
-  const friction = initialFrictionState();
-  /** Last accepted odex step, s; the first step of the next segment starts from it. */
-  let lastStep = 1e-4;
+  const startForcing = forcingTermsOf(scenario);
+  // Where the run stands (twin-run-state.ts); the fixed objects in it are also named here.
+  const run = initialRunState(
+    [scenario.initial.angle, scenario.initial.velocity, 0, -scenario.initial.angle].slice(0, stateSize),
+    scenario.inputs.slice(),
+    startForcing,
+    startForcing.stretchFrom(0, mergeEps),
+  );
+  const { y, inputs, friction, pid, hold, onsets } = run;
   const work: WorkSpent = { evaluations: 0 };
   /** The work budget by simulated time t (see TWIN_DEFAULTS.workBase). */
-  const allowance = (t: number) => workAllowance(o, t, nextIndex + nextSample);
+  const allowance = (t: number) => workAllowance(o, t, run.nextIndex + run.nextSample);
   const overBudget = (t: number) => work.evaluations > allowance(t);
-  /**
-   * A stretch left at a step boundary when a deadline passed: where it began, the odex steps
-   * spent on it and where it ends, so the per-stretch step bound means the same whether or not
-   * it was interrupted.
-   */
-  let resumed: { from: number; steps: number; end: number } | null = null;
 
   // Sampled controller: its law's state and the hold of its request (sampled-pid.ts).
   const gains: SampledPidGains = {
@@ -126,7 +99,6 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     torqueLimit: limit,
     antiWindup: nl.antiWindup,
   };
-  const pid = initialSampledPidState();
   // Continuous controller: its anti-windup regime, switched only at located events (continuous-pid.ts).
   const pidGains: ContinuousPidGains = {
     kp,
@@ -139,33 +111,17 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     antiWindup: nl.antiWindup,
   };
   const windupOn = continuousLoop && hasWindupRegimes(pidGains);
-  let windup: IntegratorRegime = { mode: 'integrating', side: 1 };
-  let windupSwitches = 0;
   /** Regime events are looked for on the dense output: stick/slip, and the anti-windup regime. */
   const eventsOn = frictionOn || windupOn;
   const noise = gaussianSource(nl.noiseSeed);
-  let nextSample = 0;
-  const hold = initialSampleHold();
 
-  // Each onset is kept the first time its effect acts (NaN until then); written as named stores
-  // because these checks run at every output sample and a keyed store by effect name measured slower.
-  const onsets = noOnsets();
-
-  /** The continuous controller's D: filtered, or x′ itself. */
-  const derivativeOf = (state: readonly number[], t: number, error: number): number => {
-    if (tf > 0) return ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
-    return onError ? stretch.referenceRate(t) - state[VELOCITY]! : -state[VELOCITY]!;
-  };
-
-  const continuousRequest = (state: readonly number[], t: number, reference = stretch.reference(t)): number => {
-    const error = reference - state[ANGLE]!;
-    return pidRequest(pidGains, error, state[INTEGRAL]!, derivativeOf(state, t, error));
-  };
+  // Each onset is kept the first time its effect acts (NaN until then) in named stores of
+  // run.onsets: these checks run at every output sample and a keyed store measured slower.
 
   /** Drive torque asked for at the joint before limit and dead band, N·m. */
   const requestedTorque = (state: readonly number[], t: number): number => {
-    if (!closedLoop) return stretch.torque(t);
-    return sampled ? hold.held : continuousRequest(state, t);
+    if (!closedLoop) return run.stretch.torque(t);
+    return sampled ? hold.held : loop.request(state, t);
   };
 
   /**
@@ -173,12 +129,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
    * sliding motion's torque), which the computed request equals to integration accuracy.
    */
   const driveRequest = (state: readonly number[], t: number): number =>
-    windup.mode === 'sliding' ? windup.side * limit : requestedTorque(state, t);
+    run.windup.mode === 'sliding' ? run.windup.side * limit : requestedTorque(state, t);
 
   /** Every torque on the joint except friction, N·m. */
   const netTorque = (state: readonly number[], t: number, requested: number): number =>
     driveTorque(requested, limit, nl.deadBand) +
-    (closedLoop ? stretch.torque(t) : 0) -
+    (closedLoop ? run.stretch.torque(t) : 0) -
     joint.damping * state[VELOCITY]! -
     joint.stiffness * state[ANGLE]! +
     gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset);
@@ -195,43 +151,24 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     }
   };
 
-  /**
-   * The integral rate that keeps the request on the limit, from θ′ and θ″ with the drive at it:
-   * u′ = N·(kp·e′ + ki·I′ + kd·D′) = 0 (continuous-pid.ts).
-   */
-  const slidingRate = (state: readonly number[], t: number, error: number, angleRate: number, acceleration: number): number => {
-    const errorRate = stretch.referenceRate(t) - angleRate;
-    const derivativeRate =
-      tf > 0
-        ? ((onError ? errorRate : -angleRate) - derivativeOf(state, t, error)) / tf
-        : onError
-          ? stretch.referenceAcceleration(t) - acceleration
-          : -acceleration;
-    return slidingIntegralRate(pidGains, frozenRequestRate(pidGains, errorRate, derivativeRate));
-  };
-
-  const probeRates = [0, 0];
-  /** slidingRate at any state, with the drive on the limit `side`. */
-  const slidingRateAt = (state: readonly number[], t: number, error: number, side: 1 | -1): number => {
-    jointRates(state, t, side * limit, probeRates);
-    return slidingRate(state, t, error, probeRates[ANGLE]!, probeRates[VELOCITY]!);
-  };
+  // The continuous controller and its anti-windup regime (continuous-loop.ts).
+  const loop = createContinuousLoop(pidGains, run, jointRates);
 
   /** The system's rates into `rates` (odex's own array while it integrates). */
   const rhsInto = (t: number, state: number[], rates: number[]): void => {
     work.evaluations++;
-    const reference = continuousLoop ? stretch.reference(t) : 0;
+    const reference = continuousLoop ? run.stretch.reference(t) : 0;
     const requested = continuousLoop
-      ? windup.mode === 'sliding'
-        ? windup.side * limit
-        : continuousRequest(state, t, reference)
+      ? run.windup.mode === 'sliding'
+        ? run.windup.side * limit
+        : loop.request(state, t, reference)
       : requestedTorque(state, t);
     jointRates(state, t, requested, rates);
     if (stateSize > INTEGRAL) {
       const error = reference - state[ANGLE]!;
       // The regime is fixed over the stretch; it changes only at located events (continuous-pid.ts).
-      const mode = windup.mode;
-      rates[INTEGRAL] = mode === 'integrating' ? error : integralRate(windup, error, mode === 'sliding' ? slidingRate(state, t, error, rates[ANGLE]!, rates[VELOCITY]!) : 0);
+      const mode = run.windup.mode;
+      rates[INTEGRAL] = mode === 'integrating' ? error : integralRate(run.windup, error, mode === 'sliding' ? loop.slidingRate(state, t, error, rates[ANGLE]!, rates[VELOCITY]!) : 0);
       if (stateSize > FILTER) rates[FILTER] = ((onError ? error : -state[ANGLE]!) - state[FILTER]!) / tf;
     }
   };
@@ -246,51 +183,16 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     frictionEvent(friction.slip, state[VELOCITY]!, friction.slip === 0 ? netTorque(state, t, drive) : 0, nl.staticFriction);
 
   const chooseFrictionRegime = () => {
-    friction.slip = chooseSlip(y[VELOCITY]!, y[VELOCITY] !== 0 ? 0 : netTorque(y, time, driveRequest(y, time)), nl.staticFriction);
-  };
-
-  /** The anti-windup event function at a state: positive once the integrator's regime no longer holds. */
-  const windupEvent = (state: readonly number[], t: number, error: number, requested: number): number => {
-    const rate = windup.mode === 'sliding' ? slidingRateAt(state, t, error, windup.side) : 0;
-    return integratorEvent(pidGains, windup, requested, error, rate);
+    friction.slip = chooseSlip(y[VELOCITY]!, y[VELOCITY] !== 0 ? 0 : netTorque(y, run.time, driveRequest(y, run.time)), nl.staticFriction);
   };
 
   /** Whether a regime must change at a state: the friction's or the integrator's (the request computed once for both). */
   const regimeEnds = (state: readonly number[], t: number): boolean => {
     if (!windupOn) return stickSlipEvent(state, t) > 0;
-    const error = stretch.reference(t) - state[ANGLE]!;
-    const requested = pidRequest(pidGains, error, state[INTEGRAL]!, derivativeOf(state, t, error));
-    if (frictionOn && stickSlipEvent(state, t, windup.mode === 'sliding' ? windup.side * limit : requested) > 0) return true;
-    return windupEvent(state, t, error, requested) > 0;
-  };
-
-  /** Puts the request exactly on the limit the integrator slides on (a restart removes the drift). */
-  const holdOnLimit = () => {
-    const error = stretch.reference(time) - y[ANGLE]!;
-    y[INTEGRAL] = integralOnLimit(pidGains, windup.side, error, derivativeOf(y, time, error));
-  };
-
-  const chooseWindupRegime = () => {
-    const reference = stretch.reference(time);
-    const error = reference - y[ANGLE]!;
-    const derivative = derivativeOf(y, time, error);
-    const requested = pidRequest(pidGains, error, y[INTEGRAL]!, derivative);
-    const reached = onLimit(pidGains, error, y[INTEGRAL]!, derivative);
-    const rate = reached ? slidingRateAt(y, time, error, requested >= 0 ? 1 : -1) : 0;
-    const next = chooseIntegratorRegime(pidGains, requested, error, rate, reached);
-    if (next.mode !== windup.mode || (next.mode !== 'integrating' && next.side !== windup.side)) windupSwitches++;
-    windup = next;
-    if (windup.mode === 'sliding') holdOnLimit();
-  };
-
-  /**
-   * At a stop: where the forcing changed (`forced`) the regime is chosen afresh; elsewhere it
-   * holds unless its event function says it ended there.
-   */
-  const reviewWindupRegime = (forced: boolean) => {
-    if (forced) return chooseWindupRegime();
-    const error = stretch.reference(time) - y[ANGLE]!;
-    if (windupEvent(y, time, error, continuousRequest(y, time)) > 0) chooseWindupRegime();
+    const error = run.stretch.reference(t) - state[ANGLE]!;
+    const requested = pidRequest(pidGains, error, state[INTEGRAL]!, loop.derivativeOf(state, t, error));
+    if (frictionOn && stickSlipEvent(state, t, run.windup.mode === 'sliding' ? run.windup.side * limit : requested) > 0) return true;
+    return loop.windupEvent(state, t, error, requested) > 0;
   };
 
   const applyJumpsAt = (t: number, terms: ForcingTerms) => {
@@ -306,35 +208,35 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     const measured = quantizeAngle(y[ANGLE]! + disturbance, nl.encoderCounts);
     if (nl.noiseStdDev > 0 && Number.isNaN(onsets.noise)) onsets.noise = t;
     if (nl.encoderCounts > 0 && measured !== y[ANGLE]! + disturbance && Number.isNaN(onsets.quantization)) onsets.quantization = t;
-    const request = sampledPidStep(pid, gains, stretch.reference(t), measured);
+    const request = sampledPidStep(pid, gains, run.stretch.reference(t), measured);
     holdRequest(hold, request, nl.computeDelay);
   };
 
   /** Brings the run to time t with y the left limit there: jumps, controller sample, friction regime. */
   const arriveAt = (t: number) => {
-    time = t;
+    run.time = t;
     // The left limit of a sliding stretch is on the limit: the drift since the last restart goes.
-    if (windupOn && windup.mode === 'sliding') holdOnLimit();
-    const breakpoints = forcing.breakpoints;
-    const passed = breakpointIndex;
-    while (breakpointIndex < breakpoints.length && breakpoints[breakpointIndex]! <= t + mergeEps) {
-      applyJumpsAt(breakpoints[breakpointIndex]!, forcing);
-      breakpointIndex++;
+    if (windupOn && run.windup.mode === 'sliding') loop.holdOnLimit();
+    const breakpoints = run.forcing.breakpoints;
+    const passed = run.breakpointIndex;
+    while (run.breakpointIndex < breakpoints.length && breakpoints[run.breakpointIndex]! <= t + mergeEps) {
+      applyJumpsAt(breakpoints[run.breakpointIndex]!, run.forcing);
+      run.breakpointIndex++;
     }
-    if (breakpointIndex !== passed) stretch = forcing.stretchFrom(t, mergeEps);
-    if (sampled && nextSample * period <= t + mergeEps) {
+    if (run.breakpointIndex !== passed) run.stretch = run.forcing.stretchFrom(t, mergeEps);
+    if (sampled && run.nextSample * period <= t + mergeEps) {
       takeSample(t);
-      nextSample++;
+      run.nextSample++;
     }
     if (frictionOn) chooseFrictionRegime();
-    if (windupOn) reviewWindupRegime(breakpointIndex !== passed);
+    if (windupOn) loop.reviewRegime(run.breakpointIndex !== passed);
   };
 
   /** End of the next segment: the nearest input edge, sample instant, chunk end or horizon. */
   const nextStop = (): number => {
-    const edge = breakpointIndex < forcing.breakpoints.length ? forcing.breakpoints[breakpointIndex]! : Infinity;
-    const sample = sampled ? nextSample * period : Infinity;
-    let end = Math.min(edge, sample, time + o.maxChunk, horizon);
+    const edge = run.breakpointIndex < run.forcing.breakpoints.length ? run.forcing.breakpoints[run.breakpointIndex]! : Infinity;
+    const sample = sampled ? run.nextSample * period : Infinity;
+    let end = Math.min(edge, sample, run.time + o.maxChunk, horizon);
     // An edge and a sample a roundoff apart become one stop at the later of the two, so the
     // controller sample there already sees the edge.
     if (edge > end && edge <= end + mergeEps) end = edge;
@@ -369,12 +271,12 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
     const pastDeadline = limits ? () => limits.now() >= limits.deadline : () => false;
     // The last odex call may end up to one chunk past the target; its grid points are kept.
     const lastWanted = Math.min(lastIndex, Math.floor((target + o.maxChunk) / dt + 1e-9));
-    const capacity = Math.max(0, lastWanted - nextIndex + 1);
+    const capacity = Math.max(0, lastWanted - run.nextIndex + 1);
     const recorder = new TraceRecorder(capacity);
     const emit = (t: number, state: readonly number[]) => {
       const requested = requestedTorque(state, t);
-      const sliding = windup.mode === 'sliding';
-      const drive = sliding ? windup.side * limit : requested;
+      const sliding = run.windup.mode === 'sliding';
+      const drive = sliding ? run.windup.side * limit : requested;
       const applied = shapesDrive ? driveTorque(drive, limit, nl.deadBand) : requested;
       const saturating = sliding || Math.abs(requested) > limit;
       const sticking = frictionOn && friction.slip === 0;
@@ -384,10 +286,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (frictionOn && !sticking && nl.coulombFriction > 0 && Number.isNaN(onsets.friction)) onsets.friction = t;
       if (sticking && netTorque(state, t, drive) !== 0 && Number.isNaN(onsets.stiction)) onsets.stiction = t;
       if (nl.gravityTorque !== 0 && gravityTorque(state[ANGLE]!, nl.gravityTorque, nl.gravityOffset) !== 0 && Number.isNaN(onsets.gravity)) onsets.gravity = t;
-      nextIndex++;
+      run.nextIndex++;
     };
     const emitFromState = (upTo: number) => {
-      while (nextIndex <= lastWanted && gridTime(nextIndex) <= upTo + eps) emit(gridTime(nextIndex), y);
+      while (run.nextIndex <= lastWanted && gridTime(run.nextIndex) <= upTo + eps) emit(gridTime(run.nextIndex), y);
     };
 
     // The stretch being integrated, shared with the step observer (made once per advance, not per stretch).
@@ -408,7 +310,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       return regimeEnds(eventState, t) ? 1 : -1;
     };
     const observeStep: StepObserver = (xOld, x, state, dense) => {
-      lastStep = x - xOld;
+      run.lastStep = x - xOld;
       if (outOfBounds(state)) {
         halt = 'bound';
         eventTime = x;
@@ -442,8 +344,8 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       // Grid points inside the step; one landing on the segment's end is emitted after the
       // restart from the state there (after any jump), so the value at a breakpoint is its right limit.
       const lastInside = Math.min(stepEnd, stretchEnd) - eps;
-      while (nextIndex <= lastWanted && gridTime(nextIndex) <= x && gridTime(nextIndex) < lastInside) {
-        const tk = gridTime(nextIndex);
+      while (run.nextIndex <= lastWanted && gridTime(run.nextIndex) <= x && gridTime(run.nextIndex) < lastInside) {
+        const tk = gridTime(run.nextIndex);
         for (let c = 0; c < stateSize; c++) stepState[c] = dense(c, tk);
         emit(tk, stepState);
       }
@@ -475,44 +377,44 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       stretchEnd = end;
       // Start with the last accepted step: restarting from odex's default 1e-4 s at every chunk
       // costs more steps than the chunk itself needs.
-      const result = active.stretch(start, y, end, Math.min(lastStep, end - start), Math.max(1, o.maxStepsPerChunk - (resumed?.steps ?? 0)), observeStep);
+      const result = active.stretch(start, y, end, Math.min(run.lastStep, end - start), Math.max(1, o.maxStepsPerChunk - (run.resumed?.steps ?? 0)), observeStep);
       return { result, halt: halt as StretchHalt | null, eventTime };
     };
 
     /** After arriving at the end of a stretch: false when a bound stopped the run there. */
     const settleArrival = (): boolean => {
       if (outOfBounds(y)) {
-        stopAt(time, boundMessage(y, time));
+        stopAt(run.time, boundMessage(y, run.time));
         return false;
       }
-      if (time >= horizon) {
+      if (run.time >= horizon) {
         emitFromState(horizon);
-        done = true;
+        run.done = true;
       }
       return true;
     };
 
-    if (!started) {
-      started = true;
+    if (!run.started) {
+      run.started = true;
       arriveAt(0);
       if (outOfBounds(y)) stopAt(0, boundMessage(y, 0));
     }
-    while (!done && nextIndex <= lastIndex) {
-      emitFromState(time);
-      if (time >= target) break;
+    while (!run.done && run.nextIndex <= lastIndex) {
+      emitFromState(run.time);
+      if (run.time >= target) break;
       // A resumed stretch keeps its end (an edge added by a kick since may come first), so its
       // step bound covers one stretch however often a deadline cut it.
-      const end = resumed ? Math.min(resumed.end, nextStop()) : nextStop();
-      const segmentStart = time;
-      if (frictionOn && friction.slip === 0 && !continuousLoop && stretch.torqueConstant) {
+      const end = run.resumed ? Math.min(run.resumed.end, nextStop()) : nextStop();
+      const segmentStart = run.time;
+      if (frictionOn && friction.slip === 0 && !continuousLoop && run.stretch.torqueConstant) {
         // Stuck, with a held (or no) controller torque and a torque channel constant between its
         // edges: nothing on the joint changes before `end`, so the state stays put exactly.
-        while (nextIndex <= lastWanted && gridTime(nextIndex) < end - eps) emit(gridTime(nextIndex), y);
+        while (run.nextIndex <= lastWanted && gridTime(run.nextIndex) < end - eps) emit(gridTime(run.nextIndex), y);
         arriveAt(end);
         if (!settleArrival() || pastDeadline()) break;
         continue;
       }
-      const gridInside = nextIndex <= lastWanted && gridTime(nextIndex) < end - eps;
+      const gridInside = run.nextIndex <= lastWanted && gridTime(run.nextIndex) < end - eps;
       // Without grid points inside, the interpolant is needed only for a regime event, and a
       // slide can only end inside if the velocity reaches zero: try the cheaper solver first and
       // redo the stretch with dense output when the end state says the slide may have ended.
@@ -521,7 +423,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       const tryPlain = !gridInside && !windupOn && (!frictionOn || friction.slip !== 0);
       const startAcceleration = tryPlain && frictionOn ? rhs(segmentStart, y)[VELOCITY]! : 0;
       // odex's own start takes at most half a stretch, so steps of half its length say it is smooth there.
-      let segment: IntegratedStretch | null = tryPlain && 2 * lastStep >= end - segmentStart ? wholeStretch(segmentStart, end) : null;
+      let segment: IntegratedStretch | null = tryPlain && 2 * run.lastStep >= end - segmentStart ? wholeStretch(segmentStart, end) : null;
       segment ??= integrateStretch(tryPlain ? plainSolver : solver, segmentStart, end);
       // A plain stretch left at the deadline is checked like a finished one: the slide may have ended inside.
       const plainEnd = segment.halt === 'deadline' ? { y: eventState, t: segment.eventTime } : { y: segment.result.y, t: end };
@@ -530,7 +432,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         segment = integrateStretch(solver, segmentStart, end);
       }
       const { result, halt, eventTime } = segment;
-      const stretchFrom = resumed?.from ?? segmentStart;
+      const stretchFrom = run.resumed?.from ?? segmentStart;
       if (halt === 'bound') {
         stopAt(result.x, boundMessage(result.y, result.x));
         break;
@@ -551,11 +453,11 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         // Left at a step boundary inside the stretch: no edge, sample or event lies before it,
         // so the run goes on from the state there without arriving anywhere.
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
-        resumed = { from: stretchFrom, steps: (resumed?.steps ?? 0) + result.steps, end };
-        time = eventTime;
+        run.resumed = { from: stretchFrom, steps: (run.resumed?.steps ?? 0) + result.steps, end };
+        run.time = eventTime;
         break;
       }
-      resumed = null;
+      run.resumed = null;
       if (halt === 'event') {
         for (let c = 0; c < stateSize; c++) y[c] = eventState[c]!;
         // The same test the scan made at this state: a friction event, an integrator one, or both.
@@ -572,54 +474,54 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
         arriveAt(end);
       }
       if (!settleArrival()) break;
-      if (overBudget(time)) {
-        stopAt(time, overBudgetMessage(time));
+      if (overBudget(run.time)) {
+        stopAt(run.time, overBudgetMessage(run.time));
         break;
       }
       if (pastDeadline()) break;
     }
-    if (nextIndex > lastIndex) done = true;
+    if (run.nextIndex > lastIndex) run.done = true;
     return recorder.trace();
   }
 
   function stopAt(t: number, message: string) {
-    stop = { reason: 'bound', time: t, message };
-    time = t;
-    done = true;
+    run.stop = { reason: 'bound', time: t, message };
+    run.time = t;
+    run.done = true;
   }
 
   function kick(term: KickTerm): Parsed<InputTerm> {
-    const admitted = admitKick(term, { done, time, horizon, closedLoop, termCount: inputs.length, mergeEps });
+    const admitted = admitKick(term, { done: run.done, time: run.time, horizon, closedLoop, termCount: inputs.length, mergeEps });
     if (!admitted.ok) return admitted;
     const added = admitted.value;
     inputs.push(added);
-    forcing = forcingTermsOf({ ...scenario, inputs });
-    if (started && added.delay === time) {
+    run.forcing = forcingTermsOf({ ...scenario, inputs });
+    if (run.started && added.delay === run.time) {
       // A stretch left at a deadline ends here: the kick starts a new one.
-      resumed = null;
-      if (windupOn && windup.mode === 'sliding') holdOnLimit();
-      stretch = forcing.stretchFrom(time, mergeEps);
+      run.resumed = null;
+      if (windupOn && run.windup.mode === 'sliding') loop.holdOnLimit();
+      run.stretch = run.forcing.stretchFrom(run.time, mergeEps);
       // Edges at `time` of the earlier terms were applied on arrival; only the new one's remains.
-      applyJumpsAt(time, forcingTermsOf({ ...scenario, inputs: [added] }));
+      applyJumpsAt(run.time, forcingTermsOf({ ...scenario, inputs: [added] }));
       if (frictionOn) chooseFrictionRegime();
-      if (windupOn) reviewWindupRegime(true);
-      if (outOfBounds(y)) stopAt(time, boundMessage(y, time));
+      if (windupOn) loop.reviewRegime(true);
+      if (outOfBounds(y)) stopAt(run.time, boundMessage(y, run.time));
     }
-    const edges = forcing.breakpoints;
-    breakpointIndex = 0;
-    while (breakpointIndex < edges.length && (started ? edges[breakpointIndex]! <= time : edges[breakpointIndex]! < 0)) breakpointIndex++;
+    const edges = run.forcing.breakpoints;
+    run.breakpointIndex = 0;
+    while (run.breakpointIndex < edges.length && (run.started ? edges[run.breakpointIndex]! <= run.time : edges[run.breakpointIndex]! < 0)) run.breakpointIndex++;
     return { ok: true, value: added };
   }
 
   return {
     get time() {
-      return time;
+      return run.time;
     },
     get done() {
-      return done;
+      return run.done;
     },
     get stop() {
-      return stop;
+      return run.stop;
     },
     get inputs() {
       return inputs;
@@ -628,10 +530,10 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       return effectOnsets(onsets, scenario);
     },
     get work() {
-      return { evaluations: work.evaluations, allowance: allowance(time) };
+      return { evaluations: work.evaluations, allowance: allowance(run.time) };
     },
     get switches() {
-      return { friction: friction.events, integrator: windupSwitches };
+      return { friction: friction.events, integrator: run.windupSwitches };
     },
     horizon,
     dt,
