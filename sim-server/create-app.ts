@@ -4,6 +4,7 @@ import path from 'node:path';
 import connectPgSimple from 'connect-pg-simple';
 import express, { type RequestHandler } from 'express';
 import session from 'express-session';
+import compression from 'compression';
 import helmet from 'helmet';
 import type { PassportStatic } from 'passport';
 import { pinoHttp } from 'pino-http';
@@ -177,6 +178,10 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
 
   const staticDir = path.resolve(config.staticDir);
   if (existsSync(path.join(staticDir, 'index.html'))) {
+    // The built app is a few MB of JavaScript; gzip takes a cold load to about a quarter of it.
+    // Only the app's files: API answers are small, and socket.io frames are its own.
+    const compress = compression();
+    app.use((req, res, next) => (req.path.startsWith('/socket.io/') ? next() : compress(req, res, next)));
     app.use(express.static(staticDir, { index: false, maxAge: '1h' }));
     // Client-side routes (/library, /bench/3) all load the app shell.
     app.get('/{*splat}', (_req, res) => res.sendFile(path.join(staticDir, 'index.html'), { maxAge: 0 }));
