@@ -9,5 +9,8 @@ export default defineConfig({
     exclude: ['**/*.int.spec.ts', 'node_modules/**'],
     environment: 'node',
     pool: 'threads',
+    // A guard, not a speed check: a clean-clone run with a busy loop beside a loaded machine
+    // took a sliced twin run past vitest's 5 s default (issue 10 §4).
+    testTimeout: 30_000,
   },
 });

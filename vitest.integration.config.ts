@@ -8,7 +8,8 @@ export default defineConfig({
     include: ['sim-server/**/*.int.spec.ts'],
     environment: 'node',
     fileParallelism: false,
-    testTimeout: 20_000,
+    // Guards, not speed checks: route fuzzing took over 20 s on a fully loaded machine.
+    testTimeout: 60_000,
     hookTimeout: 30_000,
   },
 });
