@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { type AnyPgColumn, bigint, index, integer, json, jsonb, pgEnum, pgTable, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
+import { type AnyPgColumn, bigint, check, customType, index, integer, json, jsonb, pgEnum, pgTable, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
 import { roles } from '../shared/protocol/api-types';
 import { handoffAccesses } from '../shared/protocol/library-api';
 
@@ -218,4 +218,62 @@ export const signInLimits = pgTable(
     expire: bigint('expire', { mode: 'number' }),
   },
   (table) => [index('sign_in_limits_expire_idx').on(table.expire)],
+);
+
+/**
+ * Samples of one signal as PostgreSQL bytea: the Float64 values back to back, little-endian
+ * (sim-server/logs/sample-bytes.ts). node-postgres sends a Buffer as a binary parameter, so a
+ * signal travels as its 8 bytes a value with no text form on the way in or out.
+ */
+const float64Bytes = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
+
+/**
+ * Logged joint traces (issue 12) attached to a scenario of a team: the signals in SI, one bytea
+ * of Float64 per signal (not a row per sample), how the file was read and what the reading did,
+ * and the newest fit against it. Only the team sees a log; only its owner deletes it.
+ */
+export const jointLogs = pgTable(
+  'joint_logs',
+  {
+    id: serial('id').primaryKey(),
+    teamId: integer('team_id')
+      .notNull()
+      .references(() => teams.id),
+    scenarioId: integer('scenario_id')
+      .notNull()
+      .references(() => scenarios.id),
+    ownerId: integer('owner_id')
+      .notNull()
+      .references(() => users.id),
+    name: text('name').notNull(),
+    /** The uploaded file's own name, for the list and the download. */
+    fileName: text('file_name').notNull(),
+    /** The confirmed reading options (shared/calibration/log-options.ts, defaults filled in): mapping, units, policies. */
+    readOptions: jsonb('read_options').notNull(),
+    sampleCount: integer('sample_count').notNull(),
+    /** Time in s; the others in rad, rad/s, rad and N·m, each null when the log lacks it. */
+    timeSamples: float64Bytes('time_samples').notNull(),
+    angleSamples: float64Bytes('angle_samples'),
+    velocitySamples: float64Bytes('velocity_samples'),
+    setpointSamples: float64Bytes('setpoint_samples'),
+    torqueSamples: float64Bytes('torque_samples'),
+    /** The reader's report (LogFileReport): columns, units, what was dropped, resampled or removed. */
+    parseReport: jsonb('parse_report').notNull(),
+    /** The newest fit against this log (written by the fit), null until one ran. */
+    fitReport: jsonb('fit_report'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [
+    index('joint_logs_scenario_idx').on(table.scenarioId, table.createdAt),
+    index('joint_logs_team_idx').on(table.teamId),
+    // Every signal holds exactly one Float64 per sample: a truncated write cannot be stored.
+    check(
+      'joint_logs_sample_lengths',
+      sql`${table.sampleCount} >= 2 and octet_length(${table.timeSamples}) = 8 * ${table.sampleCount}
+        and (${table.angleSamples} is null or octet_length(${table.angleSamples}) = 8 * ${table.sampleCount})
+        and (${table.velocitySamples} is null or octet_length(${table.velocitySamples}) = 8 * ${table.sampleCount})
+        and (${table.setpointSamples} is null or octet_length(${table.setpointSamples}) = 8 * ${table.sampleCount})
+        and (${table.torqueSamples} is null or octet_length(${table.torqueSamples}) = 8 * ${table.sampleCount})`,
+    ),
+  ],
 );

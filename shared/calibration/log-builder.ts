@@ -120,6 +120,8 @@ export function createLogBuilder(input?: LogReadOptionsInput): LogBuilder {
 
   let header: string[] | null = null;
   let mapping: LogMapping | null = null;
+  /** How each mapped column is named in messages, in mapping order. */
+  let labels: string[] = [];
   let mark: DecimalMark | null = options.decimalMark === 'auto' ? null : options.decimalMark;
   let bomRemoved = false;
   let firstRecord = true;
@@ -153,6 +155,32 @@ export function createLogBuilder(input?: LogReadOptionsInput): LogBuilder {
     return at.row + (index - at.index);
   }
 
+  const isBlank = (cells: readonly unknown[]) => cells.every((c) => cleanCell(c) === '');
+  const keepForPreview = (cells: readonly string[]) => {
+    if (firstRows.length < LOG_PREVIEW_ROWS) firstRows.push(cells.map((c) => (c.length > PREVIEW_CELL ? `${c.slice(0, PREVIEW_CELL)}…` : c)));
+  };
+
+  /** Rows up to the first that is not blank: it is the header or the first data row, and it fixes the mapping. */
+  function pushFirst(rawCells: readonly string[], row: number): LogPushResult | null {
+    // Checked before cleaning: String.prototype.trim counts U+FEFF as white space and would hide it.
+    if (firstRecord && typeof rawCells[0] === 'string' && rawCells[0].startsWith(BOM)) bomRemoved = true;
+    firstRecord = false;
+    const cells = rawCells.map(cleanCell);
+    if (cells.every((c) => c === '')) {
+      blankRows++;
+      return { ok: true };
+    }
+    keepForPreview(cells);
+    const isHeader = options.header === 'present' || (options.header === 'auto' && cells.some((c) => c !== '' && !looksNumeric(c)));
+    header = isHeader ? cells : null;
+    const resolved = resolveMapping(header, cells.length, options, row);
+    if ('reason' in resolved) return fail(resolved);
+    mapping = resolved;
+    labels = mapping.columns.map((column) => columnLabel(column.index, header));
+    for (const column of mapping.columns) buffers.set(column.signal, new SampleBuffer());
+    return isHeader ? { ok: true } : null;
+  }
+
   function push(rawCells: readonly string[], rowNumber: number): LogPushResult {
     if (failure) return { ok: false, error: failure };
     if (finished) return fail({ row: null, column: null, reason: 'the log was already finished; no more rows are taken' });
@@ -160,44 +188,42 @@ export function createLogBuilder(input?: LogReadOptionsInput): LogBuilder {
     const row = Number.isSafeInteger(rowNumber) && rowNumber > 0 ? rowNumber : fallbackRow;
     if (!Array.isArray(rawCells)) return fail({ row, column: null, reason: 'the row is not a list of cells' });
     if (rawCells.length > LOG_MAX_COLUMNS) return fail({ row, column: null, reason: `the row has ${rawCells.length} cells; a log has at most ${LOG_MAX_COLUMNS} columns` });
-    // Checked before cleaning: String.prototype.trim counts U+FEFF as white space and would hide it.
-    if (firstRecord && typeof rawCells[0] === 'string' && rawCells[0].startsWith(BOM)) bomRemoved = true;
-    const cells = rawCells.map(cleanCell);
-    firstRecord = false;
-    if (cells.every((c) => c === '')) {
-      blankRows++;
-      return { ok: true };
-    }
-    if (firstRows.length < LOG_PREVIEW_ROWS) firstRows.push(cells.map((c) => (c.length > PREVIEW_CELL ? `${c.slice(0, PREVIEW_CELL)}…` : c)));
-
     if (mapping === null) {
-      const isHeader = options.header === 'present' || (options.header === 'auto' && cells.some((c) => c !== '' && !looksNumeric(c)));
-      header = isHeader ? cells : null;
-      const resolved = resolveMapping(header, cells.length, options, row);
-      if ('reason' in resolved) return fail(resolved);
-      mapping = resolved;
-      for (const column of mapping.columns) buffers.set(column.signal, new SampleBuffer());
-      if (isHeader) return { ok: true };
+      const first = pushFirst(rawCells, row);
+      if (first !== null) return first;
+    } else if (firstRows.length < LOG_PREVIEW_ROWS && !isBlank(rawCells)) {
+      keepForPreview(rawCells.map(cleanCell));
     }
+    if (mapping === null) return { ok: true };
 
-    rows++;
     const values: number[] = [];
-    for (const column of mapping.columns) {
-      const label = columnLabel(column.index, header);
-      const cell = readCell(cells[column.index] ?? '', mark);
+    let counted = false;
+    for (const [c, column] of mapping.columns.entries()) {
+      const raw = rawCells[column.index];
+      // Only mapped cells are read: the rest of a row (notes, unmapped channels) costs nothing.
+      const cell = readCell(typeof raw === 'string' ? raw : cleanCell(raw), mark);
+      if (cell.kind === 'missing' && !counted && isBlank(rawCells)) {
+        blankRows++;
+        return { ok: true };
+      }
+      if (!counted) {
+        rows++;
+        counted = true;
+      }
+      const label = labels[c]!;
       if (cell.kind === 'invalid') return fail({ row, column: label, reason: cell.reason });
       if (cell.kind === 'missing') {
         if (options.missing === 'skip-row') {
           noted(skippedRows, row);
           return { ok: true };
         }
-        const text = cells[column.index];
+        const text = raw === undefined ? undefined : cleanCell(raw);
         const what = text === undefined ? 'the row ends before this column' : text === '' ? 'the cell is empty' : `${quoteCell(text)} is not a value`;
         return fail({ row, column: label, reason: `${what} (missing: "skip-row" drops such rows)` });
       }
       if (cell.mark !== null && mark === null) mark = cell.mark;
       const si = cell.value * column.factor;
-      if (!Number.isFinite(si)) return fail({ row, column: label, reason: `${quoteCell(cells[column.index]!)} ${column.unit} is out of range in SI` });
+      if (!Number.isFinite(si)) return fail({ row, column: label, reason: `${quoteCell(cleanCell(raw))} ${column.unit} is out of range in SI` });
       if (column.signal === 'time' && Math.abs(si) > LOG_MAX_ABS_TIME) {
         return fail({ row, column: label, reason: `time ${formatSeconds(si)} is beyond ±${LOG_MAX_ABS_TIME} s; log time from the start of the run, not as a clock time` });
       }
@@ -207,7 +233,7 @@ export function createLogBuilder(input?: LogReadOptionsInput): LogBuilder {
     const time = values[0]!;
     if (samples > 0) {
       const previous = buffers.get('time')!.last();
-      const timeLabel = columnLabel(mapping.columns[0]!.index, header);
+      const timeLabel = labels[0]!;
       if (time < previous) return fail({ row, column: timeLabel, reason: `time ${formatSeconds(time)} goes back from ${formatSeconds(previous)} on row ${lastRow}; times must increase` });
       if (time === previous) {
         if (options.duplicateTimes === 'keep-first') {

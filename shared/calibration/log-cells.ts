@@ -29,7 +29,8 @@ export function quoteCell(text: string): string {
  */
 export function readCell(raw: string, mark: DecimalMark | null): CellValue {
   const text = raw.trim();
-  if (MISSING_TEXTS.has(text.toLowerCase())) return { kind: 'missing' };
+  // Every placeholder is at most 4 characters: longer cells skip the lower-casing.
+  if (text.length <= 4 && MISSING_TEXTS.has(text.toLowerCase())) return { kind: 'missing' };
   let used: DecimalMark | null = null;
   let normal = text;
   if (NUMBER_WITH_DOT.test(text)) {

@@ -110,3 +110,10 @@ describe('readLogFile', () => {
     expect(r.report.file.bytes).toBe(log.produced());
   });
 });
+
+describe('readLogFile: line numbers', () => {
+  it('counts line breaks inside quoted cells, so a later row is named by its line', async () => {
+    const where = file('multiline.csv', 'time,angle,note\r\n0,1,"two\r\nlines"\r\n1,x,\r\n');
+    expect(await readLogFile(where)).toMatchObject({ ok: false, error: { row: 4, column: 'column 2 ("angle")' } });
+  });
+});
