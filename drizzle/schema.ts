@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { type AnyPgColumn, bigint, check, customType, index, integer, json, jsonb, pgEnum, pgTable, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
+import { type AnyPgColumn, bigint, check, customType, index, integer, json, jsonb, pgEnum, pgTable, primaryKey, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
 import { roles } from '../shared/protocol/api-types';
 import { handoffAccesses } from '../shared/protocol/library-api';
 
@@ -228,9 +228,9 @@ export const signInLimits = pgTable(
 const float64Bytes = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
 
 /**
- * Logged joint traces (issue 12) attached to a scenario of a team: the signals in SI, one bytea
- * of Float64 per signal (not a row per sample), how the file was read and what the reading did,
- * and the newest fit against it. Only the team sees a log; only its owner deletes it.
+ * Logged joint traces (issue 12) attached to a scenario of a team: how the file was read and
+ * what the reading did, and the newest fit against it. The samples are in joint_log_signals.
+ * Only the team sees a log; only its owner deletes it.
  */
 export const jointLogs = pgTable(
   'joint_logs',
@@ -250,30 +250,35 @@ export const jointLogs = pgTable(
     fileName: text('file_name').notNull(),
     /** The confirmed reading options (shared/calibration/log-options.ts, defaults filled in): mapping, units, policies. */
     readOptions: jsonb('read_options').notNull(),
+    /** Samples in each of the log's signals. */
     sampleCount: integer('sample_count').notNull(),
-    /** Time in s; the others in rad, rad/s, rad and N·m, each null when the log lacks it. */
-    timeSamples: float64Bytes('time_samples').notNull(),
-    angleSamples: float64Bytes('angle_samples'),
-    velocitySamples: float64Bytes('velocity_samples'),
-    setpointSamples: float64Bytes('setpoint_samples'),
-    torqueSamples: float64Bytes('torque_samples'),
-    /** The reader's report (LogFileReport): columns, units, what was dropped, resampled or removed. */
+    /** The reader's report (StoredLogReport): columns, units, what was dropped, resampled or removed. */
     parseReport: jsonb('parse_report').notNull(),
     /** The newest fit against this log (written by the fit), null until one ran. */
     fitReport: jsonb('fit_report'),
     createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
   },
+  (table) => [index('joint_logs_scenario_idx').on(table.scenarioId, table.createdAt), index('joint_logs_team_idx').on(table.teamId), check('joint_logs_sample_count', sql`${table.sampleCount} >= 2`)],
+);
+
+/**
+ * A log's samples, one row per signal (not per sample): time in s, angle and set-point in rad,
+ * velocity in rad/s, torque in N·m, as one bytea of Float64. A row per signal lets each be
+ * written and read in a statement of its own, so no statement carries the whole log at once.
+ */
+export const jointLogSignals = pgTable(
+  'joint_log_signals',
+  {
+    logId: integer('log_id')
+      .notNull()
+      .references(() => jointLogs.id, { onDelete: 'cascade' }),
+    signal: text('signal').notNull(),
+    samples: float64Bytes('samples').notNull(),
+  },
   (table) => [
-    index('joint_logs_scenario_idx').on(table.scenarioId, table.createdAt),
-    index('joint_logs_team_idx').on(table.teamId),
-    // Every signal holds exactly one Float64 per sample: a truncated write cannot be stored.
-    check(
-      'joint_logs_sample_lengths',
-      sql`${table.sampleCount} >= 2 and octet_length(${table.timeSamples}) = 8 * ${table.sampleCount}
-        and (${table.angleSamples} is null or octet_length(${table.angleSamples}) = 8 * ${table.sampleCount})
-        and (${table.velocitySamples} is null or octet_length(${table.velocitySamples}) = 8 * ${table.sampleCount})
-        and (${table.setpointSamples} is null or octet_length(${table.setpointSamples}) = 8 * ${table.sampleCount})
-        and (${table.torqueSamples} is null or octet_length(${table.torqueSamples}) = 8 * ${table.sampleCount})`,
-    ),
+    primaryKey({ columns: [table.logId, table.signal] }),
+    check('joint_log_signals_signal', sql`${table.signal} in ('time', 'angle', 'velocity', 'setpoint', 'torque')`),
+    // Whole Float64s only, at least two: a truncated write cannot be stored.
+    check('joint_log_signals_whole_samples', sql`octet_length(${table.samples}) >= 16 and octet_length(${table.samples}) % 8 = 0`),
   ],
 );

@@ -34,3 +34,10 @@ describe('detectSeparator', () => {
     expect(lineEndingOf('a')).toBeNull();
   });
 });
+
+describe('headLines', () => {
+  it('keeps a quoted line break inside its record', () => {
+    expect(headLines('t,a,n\r\n0,1,"two\r\nlines"\r\n1,2,x\r\n')).toEqual(['t,a,n', '0,1,"two\r\nlines"', '1,2,x']);
+    expect(detectSeparator('t,a,n\n0,1,"two\nlines"\n1,2,x\n')).toBe(',');
+  });
+});

@@ -23,12 +23,27 @@ function countOutsideQuotes(line: string, separator: string): number {
   return n;
 }
 
-/** The first non-blank lines of a text head (any of LF, CRLF, CR), without their line ends. */
+/**
+ * The first non-blank records of a text head (any of LF, CRLF, CR ending them), without their
+ * line ends; a line break inside double quotes belongs to its cell and does not end a record.
+ */
 export function headLines(head: string, count = SEPARATOR_SAMPLE_LINES): string[] {
-  const lines = head.replace(/^\uFEFF/, '').split(/\r\n|\n|\r/);
-  // The last piece may be a line cut off mid-way by the end of the head; it is left out unless it is all there is.
-  const complete = lines.length > 1 ? lines.slice(0, -1) : lines;
-  return complete.filter((l) => l.trim() !== '').slice(0, count);
+  const text = head.replace(/^\uFEFF/, '');
+  const records: string[] = [];
+  let quoted = false;
+  let start = 0;
+  for (let i = 0; i < text.length && records.length < count + 1; i++) {
+    const ch = text[i];
+    if (ch === '"') quoted = !quoted;
+    else if (!quoted && (ch === '\n' || ch === '\r')) {
+      records.push(text.slice(start, i));
+      if (ch === '\r' && text[i + 1] === '\n') i++;
+      start = i + 1;
+    }
+  }
+  // What follows the last line end may be a record cut off by the end of the head; it is left out unless it is all there is.
+  if (records.length === 0) records.push(text.slice(start));
+  return records.filter((l) => l.trim() !== '').slice(0, count);
 }
 
 /** The separator the head's lines agree on, or null when none fits (a single column, or ragged lines). */

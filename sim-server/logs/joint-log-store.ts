@@ -1,8 +1,8 @@
 import { and, desc, eq } from 'drizzle-orm';
-import { jointLogs, users } from '../../drizzle/schema';
+import { jointLogSignals, jointLogs, users } from '../../drizzle/schema';
 import type { LogTable } from '../../shared/calibration/log-builder';
 import type { LogReadOptions } from '../../shared/calibration/log-options';
-import { MEASURED_SIGNALS, type MeasuredSignal } from '../../shared/calibration/log-signals';
+import { LOG_SIGNALS, type LogSignal, type MeasuredSignal } from '../../shared/calibration/log-signals';
 import type { JointLogSummary, StoredLogReport } from '../../shared/protocol/log-api';
 import type { Database } from '../db/database';
 import { bytesToSamples, samplesToBytes } from './sample-bytes';
@@ -10,14 +10,10 @@ import { bytesToSamples, samplesToBytes } from './sample-bytes';
 /**
  * The SQL of logged joint traces. Every read and write names the team: a log of another team is
  * never found, whatever its id. Lists never read the samples, only their count and timing.
+ * Samples go in and out one signal per statement: node-postgres copies a statement's parameters
+ * into its message more than once, so a statement carrying all signals at once would briefly
+ * hold several times the log's samples.
  */
-
-const SAMPLE_COLUMNS = {
-  angle: jointLogs.angleSamples,
-  velocity: jointLogs.velocitySamples,
-  setpoint: jointLogs.setpointSamples,
-  torque: jointLogs.torqueSamples,
-} as const satisfies Record<MeasuredSignal, unknown>;
 
 export interface NewJointLog {
   teamId: number;
@@ -86,28 +82,32 @@ export function summaryOf(record: JointLogRecord, userId: number): JointLogSumma
   };
 }
 
-/** Stores a log; one row, one bytea per signal. */
+/** Stores a log: its row, then one row per signal, in one transaction. */
 export async function insertJointLog(db: Database, log: NewJointLog): Promise<JointLogRecord> {
-  const [row] = await db
-    .insert(jointLogs)
-    .values({
-      teamId: log.teamId,
-      scenarioId: log.scenarioId,
-      ownerId: log.ownerId,
-      name: log.name,
-      fileName: log.fileName,
-      readOptions: log.readOptions,
-      sampleCount: log.table.time.length,
-      timeSamples: samplesToBytes(log.table.time),
-      angleSamples: log.table.angle ? samplesToBytes(log.table.angle) : null,
-      velocitySamples: log.table.velocity ? samplesToBytes(log.table.velocity) : null,
-      setpointSamples: log.table.setpoint ? samplesToBytes(log.table.setpoint) : null,
-      torqueSamples: log.table.torque ? samplesToBytes(log.table.torque) : null,
-      parseReport: log.report,
-    })
-    .returning({ id: jointLogs.id });
-  const stored = await loadJointLog(db, log.teamId, row!.id);
-  if (!stored) throw new Error(`joint log ${row!.id} vanished right after it was stored`);
+  const id = await db.transaction(async (tx) => {
+    const [row] = await tx
+      .insert(jointLogs)
+      .values({
+        teamId: log.teamId,
+        scenarioId: log.scenarioId,
+        ownerId: log.ownerId,
+        name: log.name,
+        fileName: log.fileName,
+        readOptions: log.readOptions,
+        sampleCount: log.table.time.length,
+        parseReport: log.report,
+      })
+      .returning({ id: jointLogs.id });
+    for (const signal of LOG_SIGNALS) {
+      const values = log.table[signal];
+      if (!values) continue;
+      if (values.length !== log.table.time.length) throw new Error(`joint log: ${signal} has ${values.length} samples, time has ${log.table.time.length}`);
+      await tx.insert(jointLogSignals).values({ logId: row!.id, signal, samples: samplesToBytes(values) });
+    }
+    return row!.id;
+  });
+  const stored = await loadJointLog(db, log.teamId, id);
+  if (!stored) throw new Error(`joint log ${id} vanished right after it was stored`);
   return stored;
 }
 
@@ -132,23 +132,29 @@ export async function loadJointLog(db: Database, teamId: number, logId: number):
   return row ? toRecord(row) : null;
 }
 
-/** One log's samples in SI, or null when the team has no such log. */
+/** One log's samples in SI, or null when the team has no such log. Read a signal at a time, like the writes. */
 export async function loadJointLogTable(db: Database, teamId: number, logId: number): Promise<LogTable | null> {
-  const [row] = await db
-    .select({ time: jointLogs.timeSamples, ...SAMPLE_COLUMNS })
+  const [log] = await db
+    .select({ sampleCount: jointLogs.sampleCount })
     .from(jointLogs)
     .where(and(eq(jointLogs.id, logId), eq(jointLogs.teamId, teamId)));
-  if (!row) return null;
-  const time = bytesToSamples(row.time);
-  // The table's check constraint makes every length 8 × sample_count; a mismatch here is corruption.
-  if (!time) throw new Error(`joint log ${logId}: time samples are not whole Float64s`);
-  const table: LogTable = { time };
-  for (const signal of MEASURED_SIGNALS) {
-    const bytes = row[signal];
-    if (bytes === null) continue;
-    const values = bytesToSamples(bytes);
-    if (!values || values.length !== time.length) throw new Error(`joint log ${logId}: ${signal} samples do not match time`);
-    table[signal] = values;
+  if (!log) return null;
+  const stored = await db.select({ signal: jointLogSignals.signal }).from(jointLogSignals).where(eq(jointLogSignals.logId, logId));
+  const signals = new Set(stored.map((s) => s.signal));
+  const read = async (signal: LogSignal): Promise<Float64Array> => {
+    const [row] = await db
+      .select({ samples: jointLogSignals.samples })
+      .from(jointLogSignals)
+      .where(and(eq(jointLogSignals.logId, logId), eq(jointLogSignals.signal, signal)));
+    const values = row ? bytesToSamples(row.samples) : null;
+    // Written in one transaction with sample_count; a mismatch here is corruption, not input.
+    if (!values || values.length !== log.sampleCount) throw new Error(`joint log ${logId}: ${signal} does not hold ${log.sampleCount} samples`);
+    return values;
+  };
+  const table: LogTable = { time: await read('time') };
+  for (const signal of LOG_SIGNALS) {
+    if (signal === 'time' || !signals.has(signal)) continue;
+    table[signal as MeasuredSignal] = await read(signal);
   }
   return table;
 }
