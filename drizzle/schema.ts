@@ -1,5 +1,5 @@
 import { sql } from 'drizzle-orm';
-import { type AnyPgColumn, bigint, index, integer, json, jsonb, pgEnum, pgTable, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
+import { type AnyPgColumn, bigint, check, customType, index, integer, json, jsonb, pgEnum, pgTable, primaryKey, serial, text, timestamp, unique, varchar } from 'drizzle-orm/pg-core';
 import { roles } from '../shared/protocol/api-types';
 import { handoffAccesses } from '../shared/protocol/library-api';
 
@@ -218,4 +218,67 @@ export const signInLimits = pgTable(
     expire: bigint('expire', { mode: 'number' }),
   },
   (table) => [index('sign_in_limits_expire_idx').on(table.expire)],
+);
+
+/**
+ * Samples of one signal as PostgreSQL bytea: the Float64 values back to back, little-endian
+ * (sim-server/logs/sample-bytes.ts). node-postgres sends a Buffer as a binary parameter, so a
+ * signal travels as its 8 bytes a value with no text form on the way in or out.
+ */
+const float64Bytes = customType<{ data: Buffer; driverData: Buffer }>({ dataType: () => 'bytea' });
+
+/**
+ * Logged joint traces (issue 12) attached to a scenario of a team: how the file was read and
+ * what the reading did, and the newest fit against it. The samples are in joint_log_signals.
+ * Only the team sees a log; only its owner deletes it.
+ */
+export const jointLogs = pgTable(
+  'joint_logs',
+  {
+    id: serial('id').primaryKey(),
+    teamId: integer('team_id')
+      .notNull()
+      .references(() => teams.id),
+    scenarioId: integer('scenario_id')
+      .notNull()
+      .references(() => scenarios.id),
+    ownerId: integer('owner_id')
+      .notNull()
+      .references(() => users.id),
+    name: text('name').notNull(),
+    /** The uploaded file's own name, for the list and the download. */
+    fileName: text('file_name').notNull(),
+    /** The confirmed reading options (shared/calibration/log-options.ts, defaults filled in): mapping, units, policies. */
+    readOptions: jsonb('read_options').notNull(),
+    /** Samples in each of the log's signals. */
+    sampleCount: integer('sample_count').notNull(),
+    /** The reader's report (StoredLogReport): columns, units, what was dropped, resampled or removed. */
+    parseReport: jsonb('parse_report').notNull(),
+    /** The newest fit against this log (written by the fit), null until one ran. */
+    fitReport: jsonb('fit_report'),
+    createdAt: timestamp('created_at', { withTimezone: true }).notNull().defaultNow(),
+  },
+  (table) => [index('joint_logs_scenario_idx').on(table.scenarioId, table.createdAt), index('joint_logs_team_idx').on(table.teamId), check('joint_logs_sample_count', sql`${table.sampleCount} >= 2`)],
+);
+
+/**
+ * A log's samples, one row per signal (not per sample): time in s, angle and set-point in rad,
+ * velocity in rad/s, torque in N·m, as one bytea of Float64. A row per signal lets each be
+ * written and read in a statement of its own, so no statement carries the whole log at once.
+ */
+export const jointLogSignals = pgTable(
+  'joint_log_signals',
+  {
+    logId: integer('log_id')
+      .notNull()
+      .references(() => jointLogs.id, { onDelete: 'cascade' }),
+    signal: text('signal').notNull(),
+    samples: float64Bytes('samples').notNull(),
+  },
+  (table) => [
+    primaryKey({ columns: [table.logId, table.signal] }),
+    check('joint_log_signals_signal', sql`${table.signal} in ('time', 'angle', 'velocity', 'setpoint', 'torque')`),
+    // Whole Float64s only, at least two: a truncated write cannot be stored.
+    check('joint_log_signals_whole_samples', sql`octet_length(${table.samples}) >= 16 and octet_length(${table.samples}) % 8 = 0`),
+  ],
 );

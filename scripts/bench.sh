@@ -1,5 +1,6 @@
 #!/usr/bin/env bash
 # `npm run bench`: measured figures for the README (closed form, twin, live-run capacity).
+# `npm run bench -- "log upload"` measures only the sections named.
 # Uses the project-local PostgreSQL unless DATABASE_URL is set; run it on a quiet machine.
 set -euo pipefail
 cd "$(dirname "$0")/.."
@@ -16,4 +17,4 @@ if [ -z "${DATABASE_URL:-}" ]; then
   db_env=$(scripts/local-postgres.sh env kinetwin_bench)
   eval "$db_env"
 fi
-node --import tsx sim-server/bench/run-benchmarks.ts
+node --import tsx sim-server/bench/run-benchmarks.ts "$@"

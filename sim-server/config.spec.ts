@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { CHECK_QUEUE_SIZE, CHECK_TIME_LIMIT_MS } from './checks/check-limits';
-import { defaultCheckWorkers, MAX_CHECK_WORKERS, readConfig } from './config';
+import { DEFAULT_LOG_UPLOAD_MAX_MB, defaultCheckWorkers, MAX_CHECK_WORKERS, MAX_LOG_UPLOAD_MAX_MB, readConfig } from './config';
 
 const base = { DATABASE_URL: 'postgres://kinetwin@127.0.0.1:54329/kinetwin' };
 
@@ -80,5 +80,19 @@ describe('readConfig: database roles', () => {
     const read = readConfig({ ...base, ...env });
     expect(read.ok).toBe(false);
     if (!read.ok) expect(read.message).toContain(message);
+  });
+});
+
+describe('readConfig: log uploads', () => {
+  it('limits uploads to 64 MiB by default and takes KINETWIN_LOG_UPLOAD_MAX_MB in MiB', () => {
+    expect(readConfig(base)).toMatchObject({ ok: true, config: { logUploadMaxBytes: DEFAULT_LOG_UPLOAD_MAX_MB * 1024 * 1024 } });
+    expect(DEFAULT_LOG_UPLOAD_MAX_MB).toBe(64);
+    expect(readConfig({ ...base, KINETWIN_LOG_UPLOAD_MAX_MB: '2', KINETWIN_LOG_UPLOAD_DIR: '/tmp/x-uploads' })).toMatchObject({ ok: true, config: { logUploadMaxBytes: 2 * 1024 * 1024, logUploadDir: '/tmp/x-uploads' } });
+  });
+
+  it.each(['0', '1.5', String(MAX_LOG_UPLOAD_MAX_MB + 1), 'lots'])('refuses KINETWIN_LOG_UPLOAD_MAX_MB=%s naming it', (value) => {
+    const read = readConfig({ ...base, KINETWIN_LOG_UPLOAD_MAX_MB: value });
+    expect(read.ok).toBe(false);
+    if (!read.ok) expect(read.message).toContain('KINETWIN_LOG_UPLOAD_MAX_MB');
   });
 });

@@ -1,4 +1,5 @@
-import { availableParallelism } from 'node:os';
+import { availableParallelism, tmpdir } from 'node:os';
+import path from 'node:path';
 import { z } from 'zod';
 import { describeFieldErrors, parseWith } from '../shared/validation/field-errors';
 import { parseTrustedProxies } from './auth/trusted-proxies';
@@ -63,7 +64,16 @@ export interface ServerConfig {
   checkQueueSize: number;
   /** Longest one checks job may take, waiting included, ms; past it the worker is stopped and the answer is 504. */
   checkTimeLimitMs: number;
+  /** Largest CSV log one upload may carry, bytes (KINETWIN_LOG_UPLOAD_MAX_MB, in MiB); a larger one is refused with 413 and nothing kept. */
+  logUploadMaxBytes: number;
+  /** Folder uploads are written to while they are read; each file is removed when its request ends. */
+  logUploadDir: string;
 }
+
+/** Default upload limit, MiB: a 50 MB log (~30 min at 1 kHz, five signals) fits with room. */
+export const DEFAULT_LOG_UPLOAD_MAX_MB = 64;
+/** Largest upload limit accepted, MiB: beyond it a log exceeds the sample limit anyway (shared/calibration/log-options.ts). */
+export const MAX_LOG_UPLOAD_MAX_MB = 512;
 
 /** Most check workers accepted: beyond the cores of any machine this runs on, more threads only add memory. */
 export const MAX_CHECK_WORKERS = 64;
@@ -122,6 +132,8 @@ const envSchema = z.object({
   PASSWORD_RESET_TTL_MINUTES: z.coerce.number().positive().max(24 * 60).default(60),
   KINETWIN_CHECK_WORKERS: wholeNumber('KINETWIN_CHECK_WORKERS', 1, MAX_CHECK_WORKERS).optional(),
   KINETWIN_CHECK_QUEUE: wholeNumber('KINETWIN_CHECK_QUEUE', 0, 1000).default(CHECK_QUEUE_SIZE),
+  KINETWIN_LOG_UPLOAD_MAX_MB: wholeNumber('KINETWIN_LOG_UPLOAD_MAX_MB', 1, MAX_LOG_UPLOAD_MAX_MB, ' of MiB').default(DEFAULT_LOG_UPLOAD_MAX_MB),
+  KINETWIN_LOG_UPLOAD_DIR: z.string().min(1, { error: 'KINETWIN_LOG_UPLOAD_DIR must not be empty' }).optional(),
   KINETWIN_CHECK_TIME_LIMIT_MS: wholeNumber('KINETWIN_CHECK_TIME_LIMIT_MS', 100, 3_600_000, ' of milliseconds').default(CHECK_TIME_LIMIT_MS),
 });
 
@@ -173,6 +185,8 @@ export function readConfig(env: Record<string, string | undefined>): { ok: true;
       checkWorkers: e.KINETWIN_CHECK_WORKERS ?? defaultCheckWorkers(),
       checkQueueSize: e.KINETWIN_CHECK_QUEUE,
       checkTimeLimitMs: e.KINETWIN_CHECK_TIME_LIMIT_MS,
+      logUploadMaxBytes: e.KINETWIN_LOG_UPLOAD_MAX_MB * 1024 * 1024,
+      logUploadDir: path.resolve(e.KINETWIN_LOG_UPLOAD_DIR ?? path.join(tmpdir(), 'kinetwin-log-uploads')),
     },
   };
 }

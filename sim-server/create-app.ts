@@ -36,6 +36,8 @@ import { scenarioActivityRoutes, teamActivityRoutes } from './library/activity-r
 import { commentRoutes } from './library/comment-routes';
 import { handoffListRoutes, scenarioHandoffRoutes } from './library/handoff-routes';
 import type { LibraryDeps } from './library/library-deps';
+import { logRoutes } from './logs/log-routes';
+import { isLogUpload } from './logs/log-upload';
 import { mailboxRoutes } from './mail/mailbox-routes';
 import { createMailer } from './mail/mailer';
 import { createMailTransport } from './mail/mail-transport';
@@ -139,7 +141,7 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
 
   const api = express.Router();
   // Input guards (sim-server/http/): no caching, paths that decode, JSON bodies only, storable text.
-  api.use(noStore, refuseMalformedPath(table.routes), ...jsonBody(MAX_JSON_BODY), refuseUnsafeText);
+  api.use(noStore, refuseMalformedPath(table.routes), ...jsonBody(MAX_JSON_BODY, isLogUpload), refuseUnsafeText);
   api.use('/health', healthRoutes(database.pool, version));
   api.use('/app-info', appInfoRoute(info));
   api.use(sessionMiddleware, passport.initialize(), passport.session());
@@ -164,6 +166,7 @@ export function createKinetwinServer(config: ServerConfig, database: DatabaseHan
     (r) => commentRoutes(r, deps),
     (r) => scenarioHandoffRoutes(r, deps),
     (r) => scenarioActivityRoutes(r, deps),
+    (r) => logRoutes(r, { db: database.db, upload: { maxBytes: config.logUploadMaxBytes, dir: config.logUploadDir } }),
   );
   mount('/handoffs', (r) => handoffListRoutes(r, deps));
   mount(

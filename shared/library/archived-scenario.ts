@@ -7,6 +7,7 @@ export const ARCHIVED_REFUSES = {
   comment: 'commenting on it',
   handOff: 'handing it off',
   signOff: 'signing off',
+  attachLog: 'attaching a log to it',
 } as const;
 
 export type ArchivedRefusal = keyof typeof ARCHIVED_REFUSES;

@@ -23,6 +23,9 @@ export const PERMISSIONS = {
   'team.manage': ['admin'],
   'mailbox.read': ['admin'],
   'bench.check': ['viewer', 'engineer', 'lead', 'admin'],
+  'log.read': ['viewer', 'engineer', 'lead', 'admin'],
+  'log.upload': ['engineer', 'lead', 'admin'],
+  'log.delete': ['engineer', 'lead', 'admin'],
 } as const satisfies Record<string, readonly Role[]>;
 
 export type Action = keyof typeof PERMISSIONS;
@@ -53,4 +56,7 @@ export const ACTION_WORDS: Record<Action, string> = {
   'team.manage': 'manage team members and invitations',
   'mailbox.read': 'read the dev mailbox',
   'bench.check': 'run checks on the bench',
+  'log.read': 'read logged traces',
+  'log.upload': 'upload logged traces',
+  'log.delete': 'delete logged traces',
 };

@@ -20,6 +20,17 @@ interface Fixture {
   roleTarget: TestMember;
   removeTarget: TestMember;
   handoffTarget: TestMember;
+  logId: number;
+  /** A log the team's engineer owns, for the delete route. */
+  deleteLogId: number;
+}
+
+/** A small log upload as the app sends it (multipart, the file in "file"). */
+function logForm(name: string): FormData {
+  const form = new FormData();
+  form.set('file', new Blob(['time;angle [deg]\n0;0\n0,001;1,5\n0,002;3\n']), `${name}.csv`);
+  form.set('name', name);
+  return form;
 }
 
 const FORGED_TOKEN = 'A'.repeat(43);
@@ -69,6 +80,12 @@ function callsFor(member: TestMember, f: Fixture): Record<string, Call> {
     'get /api/dev/mailbox': { path: '/api/dev/mailbox' },
     'post /api/checks': { path: '/api/checks', body: { scenario: demoScenarioDocument() } },
     'post /api/checks/sine-sweep': { path: '/api/checks/sine-sweep', body: { scenario: demoScenarioDocument(), from: 1, to: 10, points: 2 } },
+    'post /api/scenarios/:id/logs/preview': { path: `${s}/logs/preview`, body: logForm(`preview ${member.role}`) },
+    'post /api/scenarios/:id/logs': { path: `${s}/logs`, body: logForm(`matrix ${member.role}`) },
+    'get /api/scenarios/:id/logs': { path: `${s}/logs` },
+    'get /api/scenarios/:id/logs/:logId': { path: `${s}/logs/${f.logId}` },
+    'get /api/scenarios/:id/logs/:logId/csv': { path: `${s}/logs/${f.logId}/csv` },
+    'delete /api/scenarios/:id/logs/:logId': { path: `${s}/logs/${f.deleteLogId}` },
     'post /api/checks/operating-range': { path: '/api/checks/operating-range', body: { scenario: { ...demoScenarioDocument(), nonlinear: { gravity: { mass: 1, arm: 0.2 } } }, angle: 0.5 } },
   };
 }
@@ -84,7 +101,7 @@ describe('role matrix: every API route × every role, against the real server', 
   let team: Awaited<ReturnType<typeof createTestTeam>>;
   let other: Awaited<ReturnType<typeof createTestTeam>>;
   let f: Fixture;
-  let foreign: { scenarioId: number; name: string; invitationId: number };
+  let foreign: { scenarioId: number; name: string; invitationId: number; logId: number };
 
   beforeAll(async () => {
     t = await startTestServer({ ACCOUNT_REQUEST_LIMIT: '1000' });
@@ -96,23 +113,34 @@ describe('role matrix: every API route × every role, against the real server', 
       expect(res.status).toBe(201);
       return (await readJson(res)).id as number;
     };
+    const uploaded = async (api: typeof engineer, scenarioId: number, name: string) => {
+      const res = await api.post(`/api/scenarios/${scenarioId}/logs`, logForm(name));
+      expect(res.status).toBe(201);
+      return (await readJson(res)).id as number;
+    };
     const invite = async (admin: TestMember, email: string) => {
       const res = await admin.api.post('/api/team/invitations', { email, role: 'viewer' });
       expect(res.status).toBe(201);
       return (await readJson(res)).id as number;
     };
+    const scenarioId = await created(engineer, 'Matrix axis');
     f = {
-      scenarioId: await created(engineer, 'Matrix axis'),
+      scenarioId,
       archiveScenarioId: await created(engineer, 'Matrix archive axis'),
       invitationId: await invite(team.members.admin, 'pending-matrix@example.test'),
       roleTarget: team.extra[4]!,
       removeTarget: team.extra[5]!,
       handoffTarget: team.members.lead,
+      logId: await uploaded(engineer, scenarioId, 'Matrix log'),
+      deleteLogId: await uploaded(engineer, scenarioId, 'Matrix log to delete'),
     };
+    const foreignScenarioId = await created(other.members.engineer.api, 'Foreign secret axis');
+    const foreignLogId = await uploaded(other.members.engineer.api, foreignScenarioId, 'Foreign secret log');
     foreign = {
-      scenarioId: await created(other.members.engineer.api, 'Foreign secret axis'),
+      scenarioId: foreignScenarioId,
       name: 'Foreign secret axis',
       invitationId: await invite(other.members.admin, 'pending-foreign@example.test'),
+      logId: foreignLogId,
     };
   });
   afterAll(() => t.close());
@@ -184,6 +212,8 @@ describe('role matrix: every API route × every role, against the real server', 
       invitationId: foreign.invitationId,
       roleTarget: other.members.viewer,
       removeTarget: other.members.lead,
+      logId: foreign.logId,
+      deleteLogId: foreign.logId,
     };
     const calls = callsFor(admin, foreignFixture);
     const withIds = t.server.routes.filter((r) => r.path.includes('/:'));

@@ -4,6 +4,7 @@ import { benchChecks } from './checks-bench';
 import { benchClosedForm } from './closed-form-bench';
 import { benchFrequency } from './frequency-bench';
 import { benchLiveSessions } from './live-sessions-bench';
+import { benchLogUpload } from './log-upload-bench';
 import { benchSignIn } from './sign-in-bench';
 import { benchStiffRun } from './stiff-run-bench';
 import { benchTwin } from './twin-bench';
@@ -27,9 +28,18 @@ async function main() {
     ['stiff live run', benchStiffRun],
     ['sign-in', () => benchSignIn(databaseUrl)],
     ['checks', () => benchChecks(databaseUrl)],
+    ['log upload', benchLogUpload],
   ];
+  // `npm run bench -- "log upload"` measures only the sections named.
+  const only = process.argv.slice(2);
+  const unknown = only.filter((name) => !sections.some(([section]) => section === name));
+  if (unknown.length > 0) {
+    process.stderr.write(`bench: no section ${unknown.map((n) => JSON.stringify(n)).join(', ')}; the sections are ${sections.map(([s]) => s).join(', ')}\n`);
+    process.exit(2);
+  }
   const rows: [string, BenchResult][] = [];
   for (const [section, run] of sections) {
+    if (only.length > 0 && !only.includes(section)) continue;
     process.stdout.write(`measuring: ${section} …\n`);
     for (const result of await run()) rows.push([section, result]);
   }

@@ -32,7 +32,7 @@ describe('the app role grants', () => {
     expect([...revisions.updateColumns!].sort()).toEqual(['sign_off_note', 'signed_off_at', 'signed_off_by']);
   });
 
-  it('let nothing but sessions and sign-in counters be deleted', () => {
-    expect(APP_GRANTS.filter((g) => g.privileges.includes('DELETE')).map((g) => g.table).sort()).toEqual(['session', 'sign_in_limits']);
+  it('let nothing but sessions, sign-in counters and logged traces (their owner deletes them) be deleted', () => {
+    expect(APP_GRANTS.filter((g) => g.privileges.includes('DELETE')).map((g) => g.table).sort()).toEqual(['joint_log_signals', 'joint_logs', 'session', 'sign_in_limits']);
   });
 });

@@ -53,6 +53,17 @@ export const APP_GRANTS: readonly TableGrant[] = [
   },
   { table: 'comments', privileges: ['SELECT', 'INSERT'], why: 'comments and replies are added and listed (library/comment-routes.ts)' },
   { table: 'activity', privileges: ['SELECT', 'INSERT'], why: 'the activity log is appended and read (library/activity-log.ts)' },
+  {
+    table: 'joint_logs',
+    privileges: ['SELECT', 'INSERT', 'DELETE'],
+    updateColumns: ['fit_report'],
+    why: 'logged traces are saved, listed, downloaded and deleted by their owner (logs/joint-log-store.ts); a fit stores its report on the log',
+  },
+  {
+    table: 'joint_log_signals',
+    privileges: ['SELECT', 'INSERT', 'DELETE'],
+    why: "a log's samples are written once per signal and read back (logs/joint-log-store.ts); deleting a log removes them (ON DELETE CASCADE)",
+  },
   { table: 'outbox', privileges: ['SELECT', 'INSERT'], why: 'the outbox transport writes mail, the dev mailbox reads it (mail/outbox-transport.ts, mailbox-routes.ts)' },
   {
     table: 'session',

@@ -19,7 +19,23 @@ export function hasBody(req: Request): boolean {
  * no body and act as if it were empty: `curl -d '{}'` sends a form type, and a duplicate or an
  * archive would otherwise go ahead on a body nobody read.
  */
-export const requireJsonBody: RequestHandler = (req, _res, next) => {
+export const requireJsonBody: RequestHandler = requireJsonBodyExcept(() => false);
+
+/** The multipart type of file uploads; only routes that take a file accept it. */
+export const MULTIPART_MEDIA_TYPE = 'multipart/form-data';
+
+/**
+ * requireJsonBody, except that a request `takesUpload` says is a file upload may be
+ * multipart/form-data instead (its route reads it with multer and validates every part).
+ */
+export function requireJsonBodyExcept(takesUpload: (req: Request) => boolean): RequestHandler {
+  return (req, res, next) => {
+    if (hasBody(req) && req.is(MULTIPART_MEDIA_TYPE) && takesUpload(req)) return next();
+    return jsonOnly(req, res, next);
+  };
+}
+
+const jsonOnly: RequestHandler = (req, _res, next) => {
   if (!hasBody(req)) return next();
   const sent = req.get('content-type');
   if (!req.is(JSON_MEDIA_TYPE)) {
@@ -45,6 +61,6 @@ export function charsetOf(contentType: string): string | null {
  * codings are refused (415, mapped in error-handler.ts): the app never compresses what it sends,
  * and inflating costs CPU for a body that is a few kilobytes.
  */
-export function jsonBody(limit: string): RequestHandler[] {
-  return [requireJsonBody, express.json({ limit, inflate: false, type: JSON_MEDIA_TYPE })];
+export function jsonBody(limit: string, takesUpload: (req: Request) => boolean = () => false): RequestHandler[] {
+  return [requireJsonBodyExcept(takesUpload), express.json({ limit, inflate: false, type: JSON_MEDIA_TYPE })];
 }

@@ -165,8 +165,12 @@ describe('route fuzzing: every route, hostile ids, queries and bodies, as an adm
     spareSession = spare.session;
     const created = await admin.api.post('/api/scenarios', { scenario: { ...demoScenarioDocument(), name: 'Fuzz axis' } });
     const invited = await admin.api.post('/api/team/invitations', { email: 'fuzz-invitee@example.test', role: 'viewer' });
-    expect([created.status, invited.status]).toEqual([201, 201]);
-    realIds = { id: String((await readJson(created)).id), n: '1', memberId: String(team.members.viewer.id), invitationId: String((await readJson(invited)).id) };
+    const scenarioId = String((await readJson(created)).id);
+    const form = new FormData();
+    form.set('file', new Blob(['time,angle\n0,0\n0.001,0.5\n']), 'fuzz.csv');
+    const logged = await admin.api.post(`/api/scenarios/${scenarioId}/logs`, form);
+    expect([created.status, invited.status, logged.status]).toEqual([201, 201, 201]);
+    realIds = { id: scenarioId, n: '1', memberId: String(team.members.viewer.id), invitationId: String((await readJson(invited)).id), logId: String((await readJson(logged)).id) };
   });
   afterAll(() => t.close());
 

@@ -91,15 +91,16 @@ export interface ApiClient {
 }
 
 export function apiClient(baseUrl: string, session: TestSession | null): ApiClient {
+  // A FormData body goes out as multipart/form-data with fetch's own boundary (file uploads).
   const request = (method: string, path: string, body?: unknown, headers: Record<string, string> = {}) =>
     fetch(`${baseUrl}${path}`, {
       method: method.toUpperCase(),
       headers: {
-        ...(body === undefined ? {} : { 'content-type': 'application/json' }),
+        ...(body === undefined || body instanceof FormData ? {} : { 'content-type': 'application/json' }),
         ...(session ? { cookie: session.cookie, 'x-csrf-token': session.csrfToken } : {}),
         ...headers,
       },
-      body: body === undefined ? undefined : typeof body === 'string' ? body : JSON.stringify(body),
+      body: body === undefined ? undefined : body instanceof FormData || typeof body === 'string' ? body : JSON.stringify(body),
     });
   return {
     get: (path) => request('GET', path),
