@@ -1,4 +1,4 @@
-import { type Scenario } from '../scenario/scenario-schema';
+import { type InputTerm, type Scenario } from '../scenario/scenario-schema';
 import { findBracketedRoot } from './bracketed-root';
 import { absComplex } from './complex-number';
 import { type InvertedPiece, type InvertedResponse } from './inverse-response';
@@ -18,6 +18,7 @@ export const MAX_METRIC_SCAN_POINTS = 1 << 18;
 export const MIN_METRIC_SCAN_POINTS = 1000;
 /** Scan step as a fraction of 1/|p| of the fastest pole still alive: ~60 points per oscillation. */
 const SCAN_STEP_PER_POLE = 0.1;
+const ZERO_RESPONSE = 'the step response settles at zero: relative metrics are undefined';
 /** Overshoot below this fraction of the final value is roundoff around a monotone approach, not a peak. */
 const OVERSHOOT_FLOOR = 1e-9;
 
@@ -66,8 +67,11 @@ export interface StepMetricsReport {
  */
 export function stepMetrics(inverted: InvertedResponse, scenario: Scenario, steadyStateError: number | null, band: SettlingBand = DEFAULT_SETTLING_BAND): StepMetricsReport {
   const NO_METRICS: StepMetrics = { riseTime: null, overshootPercent: null, peakTime: null, settlingTime: null, steadyStateError };
-  const step = firstReferenceStep(inverted.pieces);
-  if (!step) return { metrics: NO_METRICS, basis: null, reason: 'no reference step in the scenario: rise, overshoot, peak and settling need one' };
+  const stepIndex = firstReferenceStepIndex(scenario.inputs);
+  if (stepIndex === null) return { metrics: NO_METRICS, basis: null, reason: 'no reference step in the scenario: rise, overshoot, peak and settling need one' };
+  // No piece: no gain carries the reference to the angle, so the step's response is zero.
+  const step = inverted.pieces.find((p) => p.source.kind === 'input' && p.source.index === stepIndex);
+  if (!step) return { metrics: NO_METRICS, basis: null, reason: ZERO_RESPONSE };
   const term = scenario.inputs[step.source.kind === 'input' ? step.source.index : 0]!;
   const unstable = inverted.loopPoles.filter((c) => poleLocation(c.center) !== 'left');
   if (unstable.length > 0) {
@@ -76,7 +80,7 @@ export function stepMetrics(inverted: InvertedResponse, scenario: Scenario, stea
   const final = valueAtZero({ num: multiplyPolynomials([0, 1], step.transform.num), den: step.transform.den });
   const amplitude = term.amplitude;
   if (final === null || final === 0 || amplitude === 0) {
-    return { metrics: NO_METRICS, basis: null, reason: 'the step response settles at zero: relative metrics are undefined' };
+    return { metrics: NO_METRICS, basis: null, reason: ZERO_RESPONSE };
   }
   const plan = compileResponsePlan([{ ...step, delay: 0 }]);
   const transient = step.modes.filter((m) => !(m.pole.re === 0 && m.pole.im === 0));
@@ -162,13 +166,18 @@ function scanTimes(modes: InvertedPiece['modes'], band: number): Float64Array {
   return Float64Array.from(out);
 }
 
-function firstReferenceStep(pieces: readonly InvertedPiece[]): InvertedPiece | null {
-  let best: InvertedPiece | null = null;
-  for (const p of pieces) {
-    const s = p.source;
-    if (s.kind !== 'input' || s.channel !== 'reference' || s.shape !== 'step') continue;
-    if (!best || p.delay < best.delay) best = p;
-  }
+/**
+ * Which input the step metrics are measured on: the earliest reference step with a non-zero
+ * amplitude (the first listed among equally early ones), or null. The closed form and the
+ * gain map's twin cells both take the step from here.
+ * @example firstReferenceStepIndex(scenario.inputs) // 0
+ */
+export function firstReferenceStepIndex(inputs: readonly InputTerm[]): number | null {
+  let best: number | null = null;
+  inputs.forEach((term, i) => {
+    if (term.channel !== 'reference' || term.shape !== 'step' || term.amplitude === 0) return;
+    if (best === null || term.delay < inputs[best]!.delay) best = i;
+  });
   return best;
 }
 
