@@ -12,7 +12,11 @@ export interface CellMetrics {
   steadyStateError: number | null;
   /** Largest real part of the linear loop's poles, 1/s: the slowest decay (≥ 0 grows). */
   slowestPoleReal: number | null;
-  /** closed-form: every loop pole left of the axis. sim: the twin reached its horizon and the step settled. */
+  /**
+   * closed-form: every loop pole left of the axis (marginal is not stable). sim: true when the
+   * twin reached its horizon and the step settled, false when it ran into a bound, null when it
+   * did neither (or there is no reference step).
+   */
   stable: boolean | null;
   /** sim only: whether the superposition check holds for the cell (null for closed-form). */
   superpositionPass: boolean | null;

@@ -16,7 +16,8 @@ import { SETTLED_TAIL_FRACTION, traceHoldsFrom, traceStepMetrics } from './trace
  *   error r(∞) − θ(horizon), counted only when the angle holds within the settling band (of the
  *   step's final value) over the last fifth of the run;
  * - the superposition check's four runs (superpositionCheck with default options).
- * stable: both runs reached the horizon within the twin's bounds and the step settled.
+ * stable: true when both runs reached the horizon within the twin's bounds and the step settled;
+ * false when a run hit a bound (a runaway); null when neither (not settled by the horizon).
  * slowestPoleReal is the linear loop's: a trace has no poles.
  */
 export function twinCell(scenario: Scenario): { metrics: CellMetrics; reason: string | null } {
@@ -33,7 +34,8 @@ export function twinCell(scenario: Scenario): { metrics: CellMetrics; reason: st
   if (stepRun.stop) return { metrics: { ...base, stable: false }, reason: stopped('step', stepRun.stop) };
   const band = DEFAULT_SETTLING_BAND;
   const m = traceStepMetrics(stepRun.samples.t, stepRun.samples.angle, step.delay, band);
-  if (m.settlingTime === null) return { metrics: { ...base, stable: m.finalValue === 0 ? null : false }, reason: m.reason };
+  // Bounded but not shown settled (slow, or hunting on friction): the trace cannot say which.
+  if (m.settlingTime === null) return { metrics: { ...base, stable: null }, reason: m.reason };
   const fromRest = scenario.initial.angle === 0 && scenario.initial.velocity === 0 && scenario.inputs.length === 1;
   const whole = fromRest ? stepRun : simulateTwin(scenario, twin);
   const metrics: CellMetrics = { ...base, overshootPercent: m.overshootPercent, settlingTime: m.settlingTime, stable: whole.stop === null };
