@@ -5,6 +5,7 @@ import { type InvertedPiece, type InvertedResponse } from './inverse-response';
 import { multiplyPolynomials } from './polynomial';
 import { formatPole, poleLocation } from './pole-location';
 import { valueAtZero } from './rational-function';
+import { angleOnScan, metricScan, type MetricScan } from './metric-scan';
 import { compileResponsePlan, responseAt } from './response-evaluator';
 
 /** Settling bands the engine offers: 2 % (the default) or 5 % of the final value. */
@@ -84,10 +85,11 @@ export function stepMetrics(inverted: InvertedResponse, scenario: Scenario, stea
   }
   const plan = compileResponsePlan([{ ...step, delay: 0 }]);
   const transient = step.modes.filter((m) => !(m.pole.re === 0 && m.pole.im === 0));
-  const times = scanTimes(transient, band * Math.abs(final));
+  const scan = scanOf(transient, band * Math.abs(final));
+  const times = scan.times;
   const n = times.length - 1;
-  const g = new Float64Array(n + 1);
-  for (let i = 0; i <= n; i++) g[i] = responseAt(plan, times[i]!, 0) / final;
+  const g = angleOnScan(plan, scan);
+  for (let i = 0; i <= n; i++) g[i]! /= final;
   const y = (t: number) => responseAt(plan, t, 0) / final;
   const yv = (t: number) => responseAt(plan, t, 1) / final;
   const crossing = (level: number, from: number): { time: number; index: number } | null => {
@@ -143,27 +145,11 @@ export function stepMetrics(inverted: InvertedResponse, scenario: Scenario, stea
   };
 }
 
-/** Sample times 0 … end, spaced by SCAN_STEP_PER_POLE/|p| of the fastest mode still above its share of the band. */
-function scanTimes(modes: InvertedPiece['modes'], band: number): Float64Array {
+/** The scan 0 … end, spaced by SCAN_STEP_PER_POLE/|p| of the fastest mode still above its share of the band. */
+function scanOf(modes: InvertedPiece['modes'], band: number): MetricScan {
   const end = settledTime(modes, band);
-  const life = modes.map((m) => ({ speed: absComplex(m.pole), until: settledTime([m], band / Math.max(modes.length, 1)) }));
-  const stepAt = (t: number) => {
-    let speed = 0;
-    for (const l of life) if (l.until > t) speed = Math.max(speed, l.speed);
-    return speed > 0 ? SCAN_STEP_PER_POLE / speed : Infinity;
-  };
-  const coarsest = end / MIN_METRIC_SCAN_POINTS;
-  // First pass counts the points; if over the cap, every step is stretched by the same factor.
-  let count = 0;
-  for (let t = 0; t < end && count <= MAX_METRIC_SCAN_POINTS * 64; count++) t += Math.min(stepAt(t), coarsest);
-  const stretch = Math.max(1, count / MAX_METRIC_SCAN_POINTS);
-  const out: number[] = [0];
-  let t = 0;
-  while (t < end) {
-    t = Math.min(end, t + Math.min(stepAt(t) * stretch, coarsest));
-    out.push(t);
-  }
-  return Float64Array.from(out);
+  const live = modes.map((m) => ({ speed: absComplex(m.pole), until: settledTime([m], band / Math.max(modes.length, 1)) }));
+  return metricScan(live, end, SCAN_STEP_PER_POLE, MIN_METRIC_SCAN_POINTS, MAX_METRIC_SCAN_POINTS);
 }
 
 /**
