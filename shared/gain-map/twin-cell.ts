@@ -23,20 +23,24 @@ import { SETTLED_TAIL_FRACTION, traceHoldsFrom, traceStepMetrics } from './trace
 export function twinCell(scenario: Scenario): { metrics: CellMetrics; reason: string | null } {
   const twin: TwinOptions = { dt: checkDt(scenario.horizon, {}) };
   const { slowestPoleReal } = poleMetrics(loopPolesOf(scenario));
-  const superpositionPass = superpositionCheck(scenario, { twin }).pass;
   const stepIndex = firstReferenceStepIndex(scenario.inputs);
-  const base = { overshootPercent: null, settlingTime: null, steadyStateError: null, slowestPoleReal, superpositionPass };
   if (stepIndex === null) {
-    return { metrics: { ...base, stable: null }, reason: 'no reference step in the scenario: the twin\'s overshoot, settling, steady-state error and stability are read off a step' };
+    const superpositionPass = superpositionCheck(scenario, { twin }).pass;
+    const metrics = { overshootPercent: null, settlingTime: null, steadyStateError: null, slowestPoleReal, stable: null, superpositionPass };
+    return { metrics, reason: 'no reference step in the scenario: the twin\'s overshoot, settling, steady-state error and stability are read off a step' };
   }
   const step = scenario.inputs[stepIndex]!;
   const stepRun = simulateTwin(zeroStateWith(scenario, [step]), twin);
+  // The step alone is the superposition check's u1 run when the scenario holds nothing else.
+  const onlyStep = scenario.inputs.length === 1;
+  const superpositionPass = superpositionCheck(scenario, { twin, ...(onlyStep ? { u1Run: stepRun } : {}) }).pass;
+  const base = { overshootPercent: null, settlingTime: null, steadyStateError: null, slowestPoleReal, superpositionPass };
   if (stepRun.stop) return { metrics: { ...base, stable: false }, reason: stopped('step', stepRun.stop) };
   const band = DEFAULT_SETTLING_BAND;
   const m = traceStepMetrics(stepRun.samples.t, stepRun.samples.angle, step.delay, band);
   // Bounded but not shown settled (slow, or hunting on friction): the trace cannot say which.
   if (m.settlingTime === null) return { metrics: { ...base, stable: null }, reason: m.reason };
-  const fromRest = scenario.initial.angle === 0 && scenario.initial.velocity === 0 && scenario.inputs.length === 1;
+  const fromRest = scenario.initial.angle === 0 && scenario.initial.velocity === 0 && onlyStep;
   const whole = fromRest ? stepRun : simulateTwin(scenario, twin);
   const metrics: CellMetrics = { ...base, overshootPercent: m.overshootPercent, settlingTime: m.settlingTime, stable: whole.stop === null };
   if (whole.stop) return { metrics, reason: stopped('whole scenario', whole.stop) };
