@@ -68,8 +68,9 @@ export function metricScan(modes: readonly ScanMode[], end: number, stepPerSpeed
  * Angle of a one-segment plan (a piece compiled from t = 0) at every scan time, by recurrence
  * along each stretch, re-anchored exactly at each stretch's start and every
  * EVALUATOR_ANCHOR_INTERVAL points, as the grid evaluator does. The clamped last point is exact.
+ * Every value is multiplied by `scale` (the step metrics divide by the final value).
  */
-export function angleOnScan(plan: ResponsePlan, scan: MetricScan): Float64Array {
+export function angleOnScan(plan: ResponsePlan, scan: MetricScan, scale = 1): Float64Array {
   const { times, stretches } = scan;
   const out = new Float64Array(times.length);
   const groups = plan.segmentGroup[1] ?? 0;
@@ -77,8 +78,8 @@ export function angleOnScan(plan: ResponsePlan, scan: MetricScan): Float64Array 
   // Locals, not imported bindings or property reads, inside the per-point loop: the loop is the
   // gain map's hot path.
   const anchorEvery = EVALUATOR_ANCHOR_INTERVAL;
-  const cRe = plan.angleRe;
-  const cIm = plan.angleIm;
+  const cRe = plan.angleRe.map((c) => c * scale);
+  const cIm = plan.angleIm.map((c) => c * scale);
   for (let g = 0; g < groups; g++) {
     const pr = plan.groupRe[g]!;
     const pi = plan.groupIm[g]!;

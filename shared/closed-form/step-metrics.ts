@@ -88,8 +88,7 @@ export function stepMetrics(inverted: InvertedResponse, scenario: Scenario, stea
   const scan = scanOf(transient, band * Math.abs(final));
   const times = scan.times;
   const n = times.length - 1;
-  const g = angleOnScan(plan, scan);
-  for (let i = 0; i <= n; i++) g[i]! /= final;
+  const g = angleOnScan(plan, scan, 1 / final);
   const y = (t: number) => responseAt(plan, t, 0) / final;
   const yv = (t: number) => responseAt(plan, t, 1) / final;
   const crossing = (level: number, from: number): { time: number; index: number } | null => {
@@ -180,13 +179,17 @@ function settledTime(modes: InvertedPiece['modes'], band: number): number {
     monotoneFrom = Math.max(monotoneFrom, (m.angle.length - 1) / -m.pole.re);
   }
   let t = Math.max(monotoneFrom, 1 / -slowest);
+  // |c_j| once, not per doubling: this runs for every mode of every gain-map cell.
+  const terms = modes.map((m) => ({ re: m.pole.re, size: m.angle.map((c) => (m.pole.im > 0 ? 2 : 1) * absComplex(c)) }));
   for (let k = 0; k < 200; k++) {
     let envelope = 0;
-    for (const m of modes) {
-      const pair = m.pole.im > 0 ? 2 : 1;
-      m.angle.forEach((c, j) => {
-        envelope += pair * absComplex(c) * Math.pow(t, j) * Math.exp(m.pole.re * t);
-      });
+    for (const m of terms) {
+      const decay = Math.exp(m.re * t);
+      let power = 1;
+      for (let j = 0; j < m.size.length; j++) {
+        envelope += m.size[j]! * power * decay;
+        power *= t;
+      }
     }
     if (envelope <= 0.1 * band) return t;
     t *= 2;
