@@ -3,6 +3,8 @@ import { buildScenario } from '../twin/testing/build-scenario';
 import { linearRange } from './linear-range';
 import { shiftCheck } from './shift-check';
 import { superpositionCheck } from './superposition-check';
+import { zeroStateWith } from './check-verdict';
+import { simulateTwin } from '../twin/twin-run';
 
 const pid = buildScenario({ controller: { mode: 'pid', kp: 8, ki: 2, kd: 0.6, derivativeOn: 'error', derivativeFilter: 0.005 }, horizon: 2 });
 const sampled = buildScenario({ controller: { mode: 'pid', kp: 8, kd: 0.6, derivativeOn: 'measurement', samplePeriod: 0.01 }, horizon: 1.5 });
@@ -25,6 +27,12 @@ describe('superposition check', () => {
       expect(result.reason).toMatch(/^superposition holds/);
       expect(result.effects).toEqual([]);
     }
+  });
+
+  it('gives the same verdict when the caller hands it the u1 run it already has', () => {
+    const twin = { dt: 0.001 };
+    const u1Run = simulateTwin(zeroStateWith(rampThroughLimit, rampThroughLimit.inputs), twin);
+    expect(superpositionCheck(rampThroughLimit, { twin, u1Run })).toEqual(superpositionCheck(rampThroughLimit, { twin }));
   });
 
   it('fails under a torque limit and says which run hit it and when', () => {

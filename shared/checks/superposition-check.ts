@@ -22,7 +22,15 @@ export interface SuperpositionOptions {
   threshold?: number;
   /** Twin settings of every run; dt defaults to checkDt(horizon). */
   twin?: TwinOptions;
+  /**
+   * The u1 run when the caller has it already: simulateTwin(zeroStateWith(scenario, u1), twin)
+   * with these very options (the gain map's step run is that run). Saves one of the four runs.
+   */
+  u1Run?: TwinRunResult;
 }
+
+/** What simulateTwin returns. */
+export type TwinRunResult = ReturnType<typeof simulateTwin>;
 
 /** A nonlinear effect seen in one of the check's runs. */
 export interface RunEffect extends EffectOnset {
@@ -63,7 +71,7 @@ export function superpositionCheck(scenario: Scenario, options: SuperpositionOpt
     { name: 'u2', inputs: u2 },
     { name: 'u1+u2', inputs: [...u1, ...u2] },
     { name: `${alpha}·u1`, inputs: scaleTerms(u1, alpha) },
-  ].map((run) => ({ ...run, ...simulateTwin(zeroStateWith(scenario, run.inputs), twin) }));
+  ].map((run, i) => ({ ...run, ...(i === 0 && options.u1Run ? options.u1Run : simulateTwin(zeroStateWith(scenario, run.inputs), twin)) }));
 
   const effects: RunEffect[] = runs.flatMap((run) => run.effects.map((e) => ({ ...e, run: run.name }))).sort((a, b) => a.time - b.time);
   const stopped = runs.find((run) => run.stop !== null);

@@ -15,7 +15,7 @@ import { responseLatex } from './response-latex';
 import { responseTerms } from './response-terms';
 import { dominantPair } from './second-order-estimates';
 import { stepMetrics } from './step-metrics';
-import { finalValue, initialValue, referenceFinalValue } from './value-theorems';
+import { finalValue, initialValue, referenceFinalValue, steadyStateErrorOf } from './value-theorems';
 import { plantCautions } from '../scenario/plant-cautions';
 
 /**
@@ -49,7 +49,7 @@ function solveScenario(scenario: Scenario, options: Required<ClosedFormOptions>)
   const velocityTerms = responseTerms(pieces, 'velocity');
   const angleFinal = finalValue(pieces, loopPoles, scenario);
   const referenceFinal = referenceFinalValue(scenario);
-  const steadyStateError = angleFinal.applies && referenceFinal.applies ? referenceFinal.value! - angleFinal.value! : null;
+  const steadyStateError = steadyStateErrorOf(angleFinal, referenceFinal);
   const report = stepMetrics(inverted.value, scenario, steadyStateError, options.settlingBand);
   const notes: string[] = plantCautions(scenario);
   if (scenario.controller.samplePeriod !== null) {
@@ -91,7 +91,8 @@ function zerosOf(num: readonly number[]): PoleSummary[] | null {
   return clusterPoles(roots.roots).map((c) => poleSummary(c.center, c.multiplicity));
 }
 
-function stabilityOf(poles: readonly PoleCluster[]): Stability {
+/** Stable when every loop pole is left of the axis; marginal with simple poles on it; else unstable. */
+export function stabilityOf(poles: readonly PoleCluster[]): Stability {
   const where = poles.map((c) => poleLocation(c.center));
   if (where.includes('right')) return 'unstable';
   // A repeated pole on the axis grows like t^(m−1): unstable, not merely marginal.

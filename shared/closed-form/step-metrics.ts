@@ -1,10 +1,11 @@
-import { type Scenario } from '../scenario/scenario-schema';
+import { type InputTerm, type Scenario } from '../scenario/scenario-schema';
 import { findBracketedRoot } from './bracketed-root';
 import { absComplex } from './complex-number';
 import { type InvertedPiece, type InvertedResponse } from './inverse-response';
 import { multiplyPolynomials } from './polynomial';
 import { formatPole, poleLocation } from './pole-location';
 import { valueAtZero } from './rational-function';
+import { angleOnScan, metricScan, type MetricScan } from './metric-scan';
 import { compileResponsePlan, responseAt } from './response-evaluator';
 
 /** Settling bands the engine offers: 2 % (the default) or 5 % of the final value. */
@@ -18,6 +19,7 @@ export const MAX_METRIC_SCAN_POINTS = 1 << 18;
 export const MIN_METRIC_SCAN_POINTS = 1000;
 /** Scan step as a fraction of 1/|p| of the fastest pole still alive: ~60 points per oscillation. */
 const SCAN_STEP_PER_POLE = 0.1;
+const ZERO_RESPONSE = 'the step response settles at zero: relative metrics are undefined';
 /** Overshoot below this fraction of the final value is roundoff around a monotone approach, not a peak. */
 const OVERSHOOT_FLOOR = 1e-9;
 
@@ -66,8 +68,11 @@ export interface StepMetricsReport {
  */
 export function stepMetrics(inverted: InvertedResponse, scenario: Scenario, steadyStateError: number | null, band: SettlingBand = DEFAULT_SETTLING_BAND): StepMetricsReport {
   const NO_METRICS: StepMetrics = { riseTime: null, overshootPercent: null, peakTime: null, settlingTime: null, steadyStateError };
-  const step = firstReferenceStep(inverted.pieces);
-  if (!step) return { metrics: NO_METRICS, basis: null, reason: 'no reference step in the scenario: rise, overshoot, peak and settling need one' };
+  const stepIndex = firstReferenceStepIndex(scenario.inputs);
+  if (stepIndex === null) return { metrics: NO_METRICS, basis: null, reason: 'no reference step in the scenario: rise, overshoot, peak and settling need one' };
+  // No piece: no gain carries the reference to the angle, so the step's response is zero.
+  const step = inverted.pieces.find((p) => p.source.kind === 'input' && p.source.index === stepIndex);
+  if (!step) return { metrics: NO_METRICS, basis: null, reason: ZERO_RESPONSE };
   const term = scenario.inputs[step.source.kind === 'input' ? step.source.index : 0]!;
   const unstable = inverted.loopPoles.filter((c) => poleLocation(c.center) !== 'left');
   if (unstable.length > 0) {
@@ -76,14 +81,14 @@ export function stepMetrics(inverted: InvertedResponse, scenario: Scenario, stea
   const final = valueAtZero({ num: multiplyPolynomials([0, 1], step.transform.num), den: step.transform.den });
   const amplitude = term.amplitude;
   if (final === null || final === 0 || amplitude === 0) {
-    return { metrics: NO_METRICS, basis: null, reason: 'the step response settles at zero: relative metrics are undefined' };
+    return { metrics: NO_METRICS, basis: null, reason: ZERO_RESPONSE };
   }
   const plan = compileResponsePlan([{ ...step, delay: 0 }]);
   const transient = step.modes.filter((m) => !(m.pole.re === 0 && m.pole.im === 0));
-  const times = scanTimes(transient, band * Math.abs(final));
+  const scan = scanOf(transient, band * Math.abs(final));
+  const times = scan.times;
   const n = times.length - 1;
-  const g = new Float64Array(n + 1);
-  for (let i = 0; i <= n; i++) g[i] = responseAt(plan, times[i]!, 0) / final;
+  const g = angleOnScan(plan, scan, 1 / final);
   const y = (t: number) => responseAt(plan, t, 0) / final;
   const yv = (t: number) => responseAt(plan, t, 1) / final;
   const crossing = (level: number, from: number): { time: number; index: number } | null => {
@@ -139,36 +144,25 @@ export function stepMetrics(inverted: InvertedResponse, scenario: Scenario, stea
   };
 }
 
-/** Sample times 0 … end, spaced by SCAN_STEP_PER_POLE/|p| of the fastest mode still above its share of the band. */
-function scanTimes(modes: InvertedPiece['modes'], band: number): Float64Array {
+/** The scan 0 … end, spaced by SCAN_STEP_PER_POLE/|p| of the fastest mode still above its share of the band. */
+function scanOf(modes: InvertedPiece['modes'], band: number): MetricScan {
   const end = settledTime(modes, band);
-  const life = modes.map((m) => ({ speed: absComplex(m.pole), until: settledTime([m], band / Math.max(modes.length, 1)) }));
-  const stepAt = (t: number) => {
-    let speed = 0;
-    for (const l of life) if (l.until > t) speed = Math.max(speed, l.speed);
-    return speed > 0 ? SCAN_STEP_PER_POLE / speed : Infinity;
-  };
-  const coarsest = end / MIN_METRIC_SCAN_POINTS;
-  // First pass counts the points; if over the cap, every step is stretched by the same factor.
-  let count = 0;
-  for (let t = 0; t < end && count <= MAX_METRIC_SCAN_POINTS * 64; count++) t += Math.min(stepAt(t), coarsest);
-  const stretch = Math.max(1, count / MAX_METRIC_SCAN_POINTS);
-  const out: number[] = [0];
-  let t = 0;
-  while (t < end) {
-    t = Math.min(end, t + Math.min(stepAt(t) * stretch, coarsest));
-    out.push(t);
-  }
-  return Float64Array.from(out);
+  const live = modes.map((m) => ({ speed: absComplex(m.pole), until: settledTime([m], band / Math.max(modes.length, 1)) }));
+  return metricScan(live, end, SCAN_STEP_PER_POLE, MIN_METRIC_SCAN_POINTS, MAX_METRIC_SCAN_POINTS);
 }
 
-function firstReferenceStep(pieces: readonly InvertedPiece[]): InvertedPiece | null {
-  let best: InvertedPiece | null = null;
-  for (const p of pieces) {
-    const s = p.source;
-    if (s.kind !== 'input' || s.channel !== 'reference' || s.shape !== 'step') continue;
-    if (!best || p.delay < best.delay) best = p;
-  }
+/**
+ * Which input the step metrics are measured on: the earliest reference step with a non-zero
+ * amplitude (the first listed among equally early ones), or null. The closed form and the
+ * gain map's twin cells both take the step from here.
+ * @example firstReferenceStepIndex(scenario.inputs) // 0
+ */
+export function firstReferenceStepIndex(inputs: readonly InputTerm[]): number | null {
+  let best: number | null = null;
+  inputs.forEach((term, i) => {
+    if (term.channel !== 'reference' || term.shape !== 'step' || term.amplitude === 0) return;
+    if (best === null || term.delay < inputs[best]!.delay) best = i;
+  });
   return best;
 }
 
@@ -185,13 +179,17 @@ function settledTime(modes: InvertedPiece['modes'], band: number): number {
     monotoneFrom = Math.max(monotoneFrom, (m.angle.length - 1) / -m.pole.re);
   }
   let t = Math.max(monotoneFrom, 1 / -slowest);
+  // |c_j| once, not per doubling: this runs for every mode of every gain-map cell.
+  const terms = modes.map((m) => ({ re: m.pole.re, size: m.angle.map((c) => (m.pole.im > 0 ? 2 : 1) * absComplex(c)) }));
   for (let k = 0; k < 200; k++) {
     let envelope = 0;
-    for (const m of modes) {
-      const pair = m.pole.im > 0 ? 2 : 1;
-      m.angle.forEach((c, j) => {
-        envelope += pair * absComplex(c) * Math.pow(t, j) * Math.exp(m.pole.re * t);
-      });
+    for (const m of terms) {
+      const decay = Math.exp(m.re * t);
+      let power = 1;
+      for (let j = 0; j < m.size.length; j++) {
+        envelope += m.size[j]! * power * decay;
+        power *= t;
+      }
     }
     if (envelope <= 0.1 * band) return t;
     t *= 2;

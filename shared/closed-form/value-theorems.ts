@@ -98,6 +98,15 @@ export function referenceFinalValue(scenario: Scenario): FinalValue {
   return { applies: true, value: atZero.coefficients[0]!, reason: null };
 }
 
+/**
+ * Steady-state error lim t→∞ (r(t) − θ(t)), rad, from the two final values; null unless both
+ * the reference and the angle have one.
+ * @example steadyStateErrorOf(finalValue(pieces, loopPoles, scenario), referenceFinalValue(scenario)) // 0 with integral action
+ */
+export function steadyStateErrorOf(angleFinal: FinalValue, referenceFinal: FinalValue): number | null {
+  return angleFinal.applies && referenceFinal.applies ? referenceFinal.value! - angleFinal.value! : null;
+}
+
 function isOrigin(z: { re: number; im: number }): boolean {
   return z.re === 0 && z.im === 0;
 }

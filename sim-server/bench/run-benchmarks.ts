@@ -3,6 +3,7 @@ import type { BenchResult } from './bench-result';
 import { benchChecks } from './checks-bench';
 import { benchClosedForm } from './closed-form-bench';
 import { benchFrequency } from './frequency-bench';
+import { benchGainMap } from './gain-map-bench';
 import { benchLiveSessions } from './live-sessions-bench';
 import { benchLogUpload } from './log-upload-bench';
 import { benchSignIn } from './sign-in-bench';
@@ -24,6 +25,7 @@ async function main() {
     ['closed form', benchClosedForm],
     ['frequency', benchFrequency],
     ['twin', benchTwin],
+    ['gain map', benchGainMap],
     ['live runs', () => benchLiveSessions(databaseUrl)],
     ['stiff live run', benchStiffRun],
     ['sign-in', () => benchSignIn(databaseUrl)],

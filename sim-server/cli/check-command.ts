@@ -2,14 +2,14 @@ import type { CheckVerdict } from '../../shared/checks/check-verdict';
 import { linearRange } from '../../shared/checks/linear-range';
 import { shiftCheck } from '../../shared/checks/shift-check';
 import { superpositionCheck } from '../../shared/checks/superposition-check';
+import { SAFETY_CAUTION } from '../../shared/protocol/library-api';
 import { type Scenario } from '../../shared/scenario/scenario-schema';
 import { closedFormReport } from './closed-form-report';
 import { checkLimits } from './limits-check';
 import { type SolvedScenario } from './response-sources';
 
-/** Printed with every check: gains that pass here still leave the tool for real hardware. */
-export const SAFETY_NOTICE =
-  'A simulation is not a safety validation: limit torque and speed on first hardware runs, keep an emergency stop in reach, and follow ISO 10218, local codes and licensed practice.';
+/** Printed with every check: gains that pass here still leave the tool for real hardware (the one caution text). */
+export const SAFETY_NOTICE = SAFETY_CAUTION;
 
 /** Exit codes of the kinetwin command. */
 export const EXIT_OK = 0;

@@ -1,5 +1,8 @@
 import { parseArgs } from 'node:util';
 import { DEFAULT_FREQUENCY_GRID } from '../../shared/frequency/frequency-grid';
+import { GAIN_MAP_METHODS, type GainMapMethod } from '../../shared/gain-map/cell-metrics';
+import { MAP_GAINS } from '../../shared/gain-map/gain-axes';
+import type { AxisRequest, GainMapRequest } from '../../shared/gain-map/gain-map-request';
 import { type FieldError, type Parsed } from '../../shared/validation/field-errors';
 
 /** Output spacing of `kinetwin response` when --dt is not given, s. */
@@ -36,13 +39,15 @@ export type CliCommand =
     }
   | { command: 'time'; file: string; dt: number; method: TimeMethod; runs: number }
   | { command: 'linearize'; file: string; angle: number; holding: 'feed-forward' | 'disturbance'; tolerance: number }
+  | { command: 'sweep'; file: string; request: GainMapRequest; method: GainMapMethod; format: ResponseFormat }
   | { command: 'help' };
 
-const COMMANDS = ['response', 'check', 'frequency', 'time', 'linearize'] as const;
+const COMMANDS = ['response', 'check', 'frequency', 'time', 'linearize', 'sweep'] as const;
+const COMMAND_LIST = '"response", "check", "frequency", "time", "linearize" or "sweep"';
 /** Default agreement for `kinetwin linearize`'s operating range: 1 % of the peak. */
 export const DEFAULT_LINEARIZE_TOLERANCE = 0.01;
 /** Options that belong to one command only; the others refuse them by name. */
-const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'], linearize: ['angle', 'holding', 'tolerance'] } as const;
+const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'], linearize: ['angle', 'holding', 'tolerance'], sweep: ['x', 'y', 'z', 'log', 'method'] } as const;
 
 export const USAGE = `usage:
   kinetwin response FILE [--dt 0.001] [--format csv|json] [--method closed-form|sim|both]
@@ -63,7 +68,14 @@ export const USAGE = `usage:
       the linear model of a gravity-loaded joint about THETA0 (rad, or e.g. 60deg) as a scenario
       file, with its effective stiffness, holding torque and the largest move for which it
       agrees with the twin within the tolerance (a fraction of the peak)
-exit codes: 0 ok, 1 limits not met (check), 2 invalid input, 3 the twin stopped early (what it has is printed)`;
+  kinetwin sweep FILE --x GAIN:MIN:MAX:COUNT --y GAIN:MIN:MAX:COUNT [--z GAIN:VALUE] [--log x|y]
+                 [--method closed-form|sim] [--format json|csv]
+      a gain map: two of ${MAP_GAINS.join(', ')} swept over MIN … MAX in COUNT steps (2 to 200;
+      --log x or y spaces that axis in log10, repeat for both), the third gain fixed with --z;
+      each cell by the closed form (default) or the twin; JSON (default): the axes, a matrix per
+      metric (rows along y, columns along x, null where undefined) and the suggested cell;
+      CSV: one row per cell; exit 1 when the scenario sets limits and no cell meets them all
+exit codes: 0 ok, 1 limits not met (check, sweep), 2 invalid input, 3 the twin stopped early (what it has is printed)`;
 
 /**
  * Parses the kinetwin command line (arguments after the script name). Errors name the argument.
@@ -89,6 +101,10 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
         angle: { type: 'string' },
         holding: { type: 'string' },
         tolerance: { type: 'string' },
+        x: { type: 'string' },
+        y: { type: 'string' },
+        z: { type: 'string' },
+        log: { type: 'string', multiple: true },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -99,9 +115,9 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   }
   const { values, positionals } = parsed;
   if (values['help'] || positionals[0] === 'help') return { ok: true, value: { command: 'help' } };
-  if (positionals.length === 0) return fail('command', 'a command is needed: "response", "check", "frequency", "time" or "linearize"');
+  if (positionals.length === 0) return fail('command', `a command is needed: ${COMMAND_LIST}`);
   const [command, file, ...extra] = positionals;
-  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use "response", "check", "frequency", "time" or "linearize"`);
+  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use ${COMMAND_LIST}`);
   const name = command as (typeof COMMANDS)[number];
   if (file === undefined) return fail('FILE', `${name} needs a scenario FILE`);
   if (extra.length > 0) return fail('', `unexpected argument "${extra[0]}"`);
@@ -117,6 +133,7 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   if (name === 'frequency') return frequencyCommand(file, values);
   if (name === 'time') return timeCommand(file, values);
   if (name === 'linearize') return linearizeCommand(file, values);
+  if (name === 'sweep') return sweepCommand(file, values);
   const errors: FieldError[] = [];
   const dt = dtOption(values, errors);
   const format = (values['format'] ?? 'csv') as string;
@@ -204,6 +221,48 @@ function frequencyCommand(file: string, values: Record<string, unknown>): Parsed
     ok: true,
     value: { command: 'frequency', file, from, to, points, format: format as ResponseFormat, method: method as FrequencyMethod, channel: channel as 'reference' | 'torque' | null, amplitude },
   };
+}
+
+/** GAIN:MIN:MAX:COUNT of --x or --y; ranges are checked against the catalogue later (planGainMap). */
+function axisOption(key: 'x' | 'y', values: Record<string, unknown>, log: readonly string[], errors: FieldError[]): AxisRequest | null {
+  const text = values[key] === undefined ? undefined : String(values[key]);
+  if (text === undefined) {
+    errors.push({ field: `--${key}`, message: `sweep needs --${key} GAIN:MIN:MAX:COUNT, e.g. --${key} ${key === 'x' ? 'kp:0:50:40' : 'kd:0:5:40'}` });
+    return null;
+  }
+  const parts = text.split(':');
+  const [gain, min, max, count] = [parts[0]!.trim(), Number(parts[1]), Number(parts[2]), Number(parts[3])];
+  const blank = parts.slice(1).some((p) => p.trim() === '');
+  if (parts.length !== 4 || blank) errors.push({ field: `--${key}`, message: `--${key} must be GAIN:MIN:MAX:COUNT, got "${text}"` });
+  else if (!MAP_GAINS.includes(gain)) errors.push({ field: `--${key}`, message: `--${key} sweeps one of ${MAP_GAINS.join(', ')}, got "${gain}"` });
+  else if (!Number.isFinite(min) || !Number.isFinite(max)) errors.push({ field: `--${key}`, message: `--${key} needs finite MIN and MAX, got "${text}"` });
+  else if (!Number.isInteger(count)) errors.push({ field: `--${key}`, message: `--${key} needs a whole COUNT, got "${parts[3]}"` });
+  else return { gain, min, max, count, spacing: log.includes(key) ? 'log' : 'linear' };
+  return null;
+}
+
+function sweepCommand(file: string, values: Record<string, unknown>): Parsed<CliCommand> {
+  const errors: FieldError[] = [];
+  const log = ((values['log'] as string[] | undefined) ?? []).flatMap((v) => v.split(',')).map((v) => v.trim());
+  const badLog = log.find((v) => v !== 'x' && v !== 'y');
+  if (badLog !== undefined) errors.push({ field: '--log', message: `--log must be x or y (repeat it for both), got "${badLog}"` });
+  const x = axisOption('x', values, log, errors);
+  const y = axisOption('y', values, log, errors);
+  let z: GainMapRequest['z'] = null;
+  if (values['z'] !== undefined) {
+    const text = String(values['z']);
+    const parts = text.split(':');
+    const value = Number(parts[1]);
+    if (parts.length !== 2 || parts[1]!.trim() === '' || !Number.isFinite(value)) errors.push({ field: '--z', message: `--z must be GAIN:VALUE, got "${text}"` });
+    else if (!MAP_GAINS.includes(parts[0]!.trim())) errors.push({ field: '--z', message: `--z fixes one of ${MAP_GAINS.join(', ')}, got "${parts[0]}"` });
+    else z = { gain: parts[0]!.trim(), value };
+  }
+  const method = (values['method'] ?? 'closed-form') as string;
+  if (!(GAIN_MAP_METHODS as readonly string[]).includes(method)) errors.push({ field: '--method', message: `--method must be closed-form or sim for sweep, got "${method}"` });
+  const format = (values['format'] ?? 'json') as string;
+  if (!(RESPONSE_FORMATS as readonly string[]).includes(format)) errors.push({ field: '--format', message: `--format must be csv or json, got "${format}"` });
+  if (errors.length > 0 || !x || !y) return { ok: false, errors };
+  return { ok: true, value: { command: 'sweep', file, request: { x, y, z }, method: method as GainMapMethod, format: format as ResponseFormat } };
 }
 
 function fail(field: string, message: string): { ok: false; errors: FieldError[] } {

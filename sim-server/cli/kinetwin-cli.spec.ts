@@ -130,6 +130,29 @@ describe.concurrent('kinetwin command (child process)', { timeout: CHILD_TIMEOUT
     expect(angle).toBeCloseTo(0.487, 3);
   });
 
+  it('sweep prints a gain map as JSON, rows along y, and exits 0 when a cell meets every limit (via bin/kinetwin.mjs)', async () => {
+    const r = await kinetwin(['sweep', 'ok.json', '--x', 'kp:1:6:3', '--y', 'kd:0.05:0.4:2', '--z', 'ki:2'], dir, true);
+    expect(r.stderr).toBe('');
+    expect(r.code).toBe(0);
+    const doc = JSON.parse(r.stdout);
+    expect(doc.axes.x.values).toEqual([1, 3.5, 6]);
+    expect(doc.axes.z).toMatchObject({ gain: 'ki', value: 2 });
+    expect(doc.metrics.overshootPercent).toHaveLength(2);
+    expect(doc.metrics.overshootPercent[0]).toHaveLength(3);
+    // The same cell as the library's own closed form of that scenario.
+    const cell = solveClosedForm({ ...scenario, controller: { ...scenario.controller, kp: 6, kd: 0.4, ki: 2 } });
+    if (!cell.ok) throw new Error('library refused the scenario');
+    expect(doc.metrics.overshootPercent[1][2]).toBe(cell.value.metrics.overshootPercent);
+    expect(doc.metrics.settlingTime[1][2]).toBe(cell.value.metrics.settlingTime);
+    expect(doc.suggested).not.toBeNull();
+  });
+
+  it('sweep exits 2 naming the argument', async () => {
+    const r = await kinetwin(['sweep', 'ok.json', '--x', 'kp:0:50:40'], dir);
+    expect(r.code).toBe(2);
+    expect(r.stderr).toContain('"--y"');
+  });
+
   it('exits 2 on invalid input, naming the field and the reason', async () => {
     const bad = await kinetwin(['check', 'bad.json'], dir);
     expect(bad.code).toBe(2);

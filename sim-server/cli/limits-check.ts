@@ -1,9 +1,10 @@
 import { type Scenario } from '../../shared/scenario/scenario-schema';
 import { type StepMetrics } from '../../shared/closed-form/index';
+import { LIMITED_METRICS, limitVerdicts, type LimitedMetric } from '../../shared/scenario/limit-verdicts';
 
-/** One limit of the scenario judged against a metric. */
+/** One limit of the scenario judged against a metric, as `kinetwin check` prints it. */
 export interface LimitVerdict {
-  limit: 'overshootPercent' | 'settlingTime' | 'steadyStateError';
+  limit: LimitedMetric;
   /** The scenario's bound (%, s or rad). */
   bound: number;
   /** The measured metric (|steady-state error| for that limit); null when undefined. */
@@ -13,24 +14,16 @@ export interface LimitVerdict {
 }
 
 /**
- * Judges the scenario's limits (null limits are skipped). An undefined metric never meets a
- * limit: an unstable loop or a missing reference step cannot pass a check.
+ * Judges the scenario's limits (null limits are skipped) by the shared rule (limitVerdicts) and
+ * says why each unmet one fails.
  * @example checkLimits(scenario.limits, metrics, null) // [{ limit: 'overshootPercent', bound: 10, value: 16.3, met: false, … }]
  */
 export function checkLimits(limits: Scenario['limits'], metrics: StepMetrics, whyUndefined: string | null): LimitVerdict[] {
-  const verdicts: LimitVerdict[] = [];
-  const judge = (limit: LimitVerdict['limit'], bound: number | null, raw: number | null) => {
-    if (bound === null) return;
-    const value = raw === null ? null : limit === 'steadyStateError' ? Math.abs(raw) : raw;
-    if (value === null) {
-      verdicts.push({ limit, bound, value, met: false, reason: `${limit} is undefined${whyUndefined ? `: ${whyUndefined}` : ''}` });
-      return;
-    }
-    const met = value <= bound;
-    verdicts.push({ limit, bound, value, met, reason: met ? null : `${limit} ${value} exceeds the limit ${bound}` });
-  };
-  judge('overshootPercent', limits.overshootPercent, metrics.overshootPercent);
-  judge('settlingTime', limits.settlingTime, metrics.settlingTime);
-  judge('steadyStateError', limits.steadyStateError, metrics.steadyStateError);
-  return verdicts;
+  const verdicts = limitVerdicts(limits, metrics);
+  return LIMITED_METRICS.flatMap((limit) => {
+    const v = verdicts[limit];
+    if (!v) return [];
+    const reason = v.value === null ? `${limit} is undefined${whyUndefined ? `: ${whyUndefined}` : ''}` : v.met ? null : `${limit} ${v.value} exceeds the limit ${v.bound}`;
+    return [{ limit, ...v, reason }];
+  });
 }

@@ -11,6 +11,11 @@ import { frequencyOutput, frequencySummary, measuredSeries, type MeasuredSeries 
 import { checkGridSize, responseChunks } from './response-command';
 import { responseWork, timeWork } from './time-command';
 import { solveByMethod } from './response-sources';
+import { sweepOutput } from './sweep-command';
+import { evaluateCells } from '../../shared/gain-map/evaluate-cells';
+import { planGainMap } from '../../shared/gain-map/gain-map-plan';
+import { summarizeGainMap } from '../../shared/gain-map/gain-map-result';
+import { SAFETY_CAUTION } from '../../shared/protocol/library-api';
 
 /** What the command line touches, passed in so the whole flow runs in tests without a process. */
 export interface CliIo {
@@ -95,6 +100,19 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     }
     await io.writeOut(`${JSON.stringify(timed.report, null, 2)}\n`);
     return EXIT_OK;
+  }
+  if (cmd.command === 'sweep') {
+    const plan = planGainMap(scenario.value, cmd.request);
+    // The request's fields are the options': x.min and x.count both come from --x.
+    if (!plan.ok) return invalid(io, 'invalid arguments', plan.errors.map((e) => (/^[xyz]\b/.test(e.field) ? { ...e, field: `--${e.field[0]}`, message: `${e.field}: ${e.message}` } : e)), false);
+    const indices = Array.from({ length: plan.value.cells }, (_, i) => i);
+    const cells = evaluateCells(scenario.value, plan.value, cmd.method, indices);
+    if (!cells.ok) return invalid(io, `${cmd.method === 'sim' ? 'the twin cannot run' : 'cannot map'} ${cmd.file}`, cells.errors, false);
+    const map = summarizeGainMap(scenario.value, plan.value, cmd.method, cells.value);
+    const out = sweepOutput(scenario.value, plan.value, map, cells.value, cmd.format);
+    await io.writeOut(out.text);
+    if (cmd.format === 'csv') io.writeErr(`kinetwin: ${map.statement}. ${SAFETY_CAUTION}\n`);
+    return out.exitCode;
   }
   // Size the grid before solving: a twin run on a too-fine grid would cost minutes and memory.
   const grid = checkGridSize(cmd.dt, scenario.value.horizon);

@@ -1,6 +1,6 @@
 import type { ClosedFormSolution, PoleSummary, StepMetrics } from '@kinetwin/shared/closed-form/index';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
-import { type LimitedMetric, limitVerdicts } from './limit-verdicts';
+import { type LimitedMetric, limitVerdicts } from '@kinetwin/shared/scenario/limit-verdicts';
 import { formatQuantity } from './scenario-facts';
 
 /** One step metric with the scenario's limit beside it and the textbook estimate where there is one. */

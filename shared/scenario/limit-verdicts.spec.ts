@@ -1,3 +1,4 @@
+import { describe, expect, it } from 'vitest';
 import { limitVerdicts } from './limit-verdicts';
 
 const metrics = { riseTime: 0.1, overshootPercent: 16.3, peakTime: 0.2, settlingTime: 0.5, steadyStateError: -0.002 };
