@@ -564,7 +564,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (windupOn && windup.mode === 'sliding') holdOnLimit();
       stretch = forcing.stretchFrom(time, mergeEps);
       // Edges at `time` of the earlier terms were applied on arrival; only the new one's remains.
-      applyJumpsAt(time, forcingTermsOf({ ...scenario, inputs: [added] }));
+      applyJumpsAt(time, forcingTermsOf({ ...scenario, inputs: [added], recordedInputs: [] }));
       if (frictionOn) chooseFrictionRegime();
       if (windupOn) reviewWindupRegime(true);
       if (outOfBounds(y)) stopAt(time, boundMessage(y, time));
