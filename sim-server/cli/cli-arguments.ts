@@ -1,6 +1,7 @@
 import { parseArgs } from 'node:util';
 import { DEFAULT_FREQUENCY_GRID } from '../../shared/frequency/frequency-grid';
 import { type FieldError, type Parsed } from '../../shared/validation/field-errors';
+import { FIT_OPTIONS, parseFitArguments, type FitCliCommand } from './fit-arguments';
 
 /** Output spacing of `kinetwin response` when --dt is not given, s. */
 export const DEFAULT_RESPONSE_DT = 0.001;
@@ -36,13 +37,14 @@ export type CliCommand =
     }
   | { command: 'time'; file: string; dt: number; method: TimeMethod; runs: number }
   | { command: 'linearize'; file: string; angle: number; holding: 'feed-forward' | 'disturbance'; tolerance: number }
+  | FitCliCommand
   | { command: 'help' };
 
-const COMMANDS = ['response', 'check', 'frequency', 'time', 'linearize'] as const;
+const COMMANDS = ['response', 'check', 'frequency', 'time', 'linearize', 'fit'] as const;
 /** Default agreement for `kinetwin linearize`'s operating range: 1 % of the peak. */
 export const DEFAULT_LINEARIZE_TOLERANCE = 0.01;
 /** Options that belong to one command only; the others refuse them by name. */
-const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'], linearize: ['angle', 'holding', 'tolerance'] } as const;
+const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'], linearize: ['angle', 'holding', 'tolerance'], fit: FIT_OPTIONS } as const;
 
 export const USAGE = `usage:
   kinetwin response FILE [--dt 0.001] [--format csv|json] [--method closed-form|sim|both]
@@ -63,7 +65,14 @@ export const USAGE = `usage:
       the linear model of a gravity-loaded joint about THETA0 (rad, or e.g. 60deg) as a scenario
       file, with its effective stiffness, holding torque and the largest move for which it
       agrees with the twin within the tolerance (a fraction of the peak)
-exit codes: 0 ok, 1 limits not met (check), 2 invalid input, 3 the twin stopped early (what it has is printed)`;
+  kinetwin fit SCENARIO LOG.csv --params inertia,damping,stiffness[,coulombFriction,staticFriction,torqueOffset,inputDelay]
+                 [--columns t=time,angle=angle,torque=torque] [--units angle=deg,t=ms] [--counts-per-rev N]
+                 [--window 0:5] [--initial log|scenario] [--hold zoh|linear]
+      fits the twin's parameters to the log's angle (and velocity, where mapped) with the log's torque
+      or set-point replayed as recorded inputs, from the scenario's values; prints JSON with each
+      parameter's value and 95 % interval (low, high) under its name, rms, r2 and warnings;
+      --window in s from the log's first sample; --initial log starts from the first measured angle
+exit codes: 0 ok, 1 limits not met (check), 2 invalid input (a bad log names its row), 3 the twin stopped early (what it has is printed)`;
 
 /**
  * Parses the kinetwin command line (arguments after the script name). Errors name the argument.
@@ -89,6 +98,13 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
         angle: { type: 'string' },
         holding: { type: 'string' },
         tolerance: { type: 'string' },
+        params: { type: 'string' },
+        columns: { type: 'string' },
+        units: { type: 'string' },
+        window: { type: 'string' },
+        initial: { type: 'string' },
+        hold: { type: 'string' },
+        'counts-per-rev': { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -99,11 +115,13 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   }
   const { values, positionals } = parsed;
   if (values['help'] || positionals[0] === 'help') return { ok: true, value: { command: 'help' } };
-  if (positionals.length === 0) return fail('command', 'a command is needed: "response", "check", "frequency", "time" or "linearize"');
-  const [command, file, ...extra] = positionals;
-  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use "response", "check", "frequency", "time" or "linearize"`);
+  if (positionals.length === 0) return fail('command', 'a command is needed: "response", "check", "frequency", "time", "linearize" or "fit"');
+  const [command, file, ...rest] = positionals;
+  if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use "response", "check", "frequency", "time", "linearize" or "fit"`);
   const name = command as (typeof COMMANDS)[number];
   if (file === undefined) return fail('FILE', `${name} needs a scenario FILE`);
+  // fit takes the log as a second file.
+  const extra = name === 'fit' ? rest.slice(1) : rest;
   if (extra.length > 0) return fail('', `unexpected argument "${extra[0]}"`);
   for (const other of COMMANDS) {
     if (other === name) continue;
@@ -117,6 +135,7 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   if (name === 'frequency') return frequencyCommand(file, values);
   if (name === 'time') return timeCommand(file, values);
   if (name === 'linearize') return linearizeCommand(file, values);
+  if (name === 'fit') return parseFitArguments(file, rest[0], values);
   const errors: FieldError[] = [];
   const dt = dtOption(values, errors);
   const format = (values['format'] ?? 'csv') as string;
