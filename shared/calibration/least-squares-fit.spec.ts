@@ -17,8 +17,8 @@ function lineProblem(x: readonly number[], y: readonly number[], start = [0, 0])
   };
 }
 
-function fittedLine(x: readonly number[], y: readonly number[]) {
-  const fit = leastSquaresFit(lineProblem(x, y));
+function fittedLine(x: readonly number[], y: readonly number[], start = [0, 0]) {
+  const fit = leastSquaresFit(lineProblem(x, y, start));
   if (!fit.ok) throw new Error(fit.message);
   const residual = Float64Array.from(y, (yi, i) => yi - fit.value.model[i]!);
   return { fit: fit.value, stats: parameterStatistics(fit.value.jacobian, residual, fit.value.values), residual };

@@ -5,7 +5,7 @@ import type { InputTerm, RecordedInput, Scenario } from '../scenario/scenario-sc
 import { forcingTermsOf } from './forcing-terms';
 import { recordedSamplesProblem, withRecordings, type RecordedSamples, type TwinScenario } from './recorded-samples';
 import { buildScenario } from './testing/build-scenario';
-import { simulateTwin } from './twin-run';
+import { createTwinRun, simulateTwin } from './twin-run';
 
 const EPS = 1e-12;
 const samples = (t: number[], values: number[]): RecordedSamples => ({ t: Float64Array.from(t), values: Float64Array.from(values) });
@@ -162,6 +162,28 @@ describe('recorded inputs as forcing terms', () => {
     ];
     const scenario = recorded(pid, [term({ channel: 'reference', signal: 'setpoint', delay: 0.05 })], [signal]);
     expect(worstAgainstClosedForm(scenario, equivalent)).toBeLessThan(1e-9);
+  });
+
+  it('reuses one stretch object across recorded samples: nothing is allocated per edge', () => {
+    const terms = forcingTermsOf(recorded(openLoop(), [term()], [signal]));
+    const first = terms.stretchFrom(0.1, EPS);
+    expect(terms.stretchFrom(0.3, EPS)).toBe(first);
+    expect(first.torque(0.5)).toBe(-0.1);
+  });
+
+  it('a kick at a recorded set-point edge adds only its own jump (the edge was applied on arrival)', () => {
+    // An unfiltered derivative on the error turns each reference jump into a velocity jump, so a
+    // jump applied twice would show at once.
+    const pid = buildScenario({ inputs: [], horizon: 1, controller: { mode: 'pid', kp: 8, kd: 0.6, derivativeOn: 'error' } });
+    const scenario = recorded(pid, [term({ channel: 'reference', signal: 'setpoint' })], [signal]);
+    const run = createTwinRun(scenario, { dt: 0.001 });
+    const before = run.advance(0.3);
+    const kicked = run.kick({ channel: 'torque', shape: 'step', amplitude: 0.1 });
+    expect(kicked.ok && kicked.value.delay).toBe(0.3);
+    const after = run.advance(1);
+    const whole = simulateTwin({ ...scenario, inputs: [...run.inputs] }, { dt: 0.001 }).samples;
+    const angle = [...before.angle, ...after.angle];
+    for (let i = 301; i < angle.length; i++) expect(angle[i]).toBeCloseTo(whole.angle[i]!, 9);
   });
 
   it('the closed form says plainly that it leaves a recorded input out', () => {

@@ -2,6 +2,7 @@ import os from 'node:os';
 import type { BenchResult } from './bench-result';
 import { benchChecks } from './checks-bench';
 import { benchClosedForm } from './closed-form-bench';
+import { benchFit } from './fit-bench';
 import { benchFrequency } from './frequency-bench';
 import { benchLiveSessions } from './live-sessions-bench';
 import { benchSignIn } from './sign-in-bench';
@@ -23,6 +24,7 @@ async function main() {
     ['closed form', benchClosedForm],
     ['frequency', benchFrequency],
     ['twin', benchTwin],
+    ['fit', benchFit],
     ['live runs', () => benchLiveSessions(databaseUrl)],
     ['stiff live run', benchStiffRun],
     ['sign-in', () => benchSignIn(databaseUrl)],
