@@ -104,6 +104,17 @@ describe('the fit report', () => {
     expect(cancelled).toEqual({ ok: false, cancelled: true, errors: [{ field: '', message: 'the fit was cancelled' }] });
   });
 
+  it('numbers the iterations of the velocity-weighted second pass on from the first', () => {
+    const withVelocity = synthesizeTrace(scenario, 200, 1e-4, 1e-3, 5);
+    const seen: number[] = [];
+    const start = { ...scenario, joint: { ...scenario.joint, inertia: 0.08 } };
+    const done = fitTwin({ scenario: start, measured: withVelocity, parameters: ['inertia'], initialState: 'scenario' }, { onProgress: ({ iteration }) => seen.push(iteration) });
+    if (!done.ok) throw new Error(JSON.stringify(done.errors));
+    expect(seen).toEqual([...seen].sort((a, b) => a - b));
+    expect(seen[seen.length - 1]).toBe(done.value.iterations);
+    expect(done.value.velocity!.rms).toBeGreaterThan(0.5e-3);
+  });
+
   it('says when the twin cannot run at the start values', () => {
     // A spring pushing away from rest hard enough that the twin's runaway bound stops the run.
     const runaway = { ...scenario, joint: { ...scenario.joint, stiffness: -1e6 } };

@@ -136,14 +136,21 @@ export function fitTwin(request: FitRequest, hooks: FitHooks = {}, twinOptions: 
   let model: FitModel = createFitModel(r, weights, twinOptions);
   const scale = r.start.map((v, j) => scaleOf(names[j]!, v, r, model.dt));
 
+  // The second pass (velocity measured) numbers its iterations on from the first's.
+  let iterationBase = 0;
+  const passHooks: FitHooks = {
+    onProgress: hooks.onProgress && (({ iteration, cost }) => hooks.onProgress!({ iteration: iterationBase + iteration, cost })),
+    isCancelled: hooks.isCancelled,
+  };
   const run = (start: readonly number[], m: FitModel) =>
-    leastSquaresFit({ data: m.data, model: (p) => m.model(p), start, lower: r.lower, upper: r.upper, scale }, hooks, { maxIterations: r.maxIterations });
+    leastSquaresFit({ data: m.data, model: (p) => m.model(p), start, lower: r.lower, upper: r.upper, scale }, passHooks, { maxIterations: r.maxIterations });
   let outcome = run(r.start, model);
   let iterations = 0;
   let evaluations = 0;
   if (outcome.ok && withVelocity) {
     iterations += outcome.value.iterations;
     evaluations += outcome.value.evaluations;
+    iterationBase = iterations;
     const residualRms = (offset: number) => {
       const v = outcome.ok ? outcome.value : null;
       let ss = 0;
