@@ -43,8 +43,6 @@ export interface LeastSquaresOptions {
   stepTolerance: number;
   /** Forward-difference step of the package's Jacobian, as a fraction of each scale. */
   differenceStep: number;
-  /** Central-difference step of the Jacobian at the optimum, as a fraction of each scale. */
-  finalDifferenceStep: number;
 }
 
 export const LEAST_SQUARES_DEFAULTS: LeastSquaresOptions = {
@@ -52,7 +50,6 @@ export const LEAST_SQUARES_DEFAULTS: LeastSquaresOptions = {
   costTolerance: 1e-9,
   stepTolerance: 1e-9,
   differenceStep: 1e-5,
-  finalDifferenceStep: 1e-4,
 };
 
 /** The package's starting damping and its bounds (its defaults). */
@@ -72,9 +69,9 @@ export interface LeastSquaresResult {
   evaluations: number;
   /** The model at the optimum. */
   model: Float64Array;
-  /** ∂model/∂p_j at the optimum by central differences (one-sided at a bound), per parameter. */
+  /** ∂model/∂p_j at the optimum by forward differences (backward at an upper bound), per parameter. */
   jacobian: Float64Array[];
-  /** Whether each parameter ended on (within a step of) a bound. */
+  /** Whether each parameter ended on (within a difference step of) a bound. */
   atBound: boolean[];
 }
 
@@ -184,19 +181,20 @@ export function leastSquaresFit(problem: LeastSquaresProblem, hooks: FitHooks = 
       }
     }
     const model = modelAt(q);
+    // The Jacobian for the intervals: forward differences with the package's own step (backward
+    // at an upper bound), so when the fit ended by rejecting a step from the optimum, the package
+    // has already evaluated every point needed and they are remembered: no extra twin run.
     const jacobian: Float64Array[] = [];
     const atBound: boolean[] = [];
     for (let j = 0; j < p; j++) {
-      const h = o.finalDifferenceStep;
-      const up = Math.min(q[j]! + h, upper[j]!);
-      const down = Math.max(q[j]! - h, lower[j]!);
-      atBound.push(up - q[j]! < h / 2 || q[j]! - down < h / 2);
-      const at = (v: number) => modelAt(q.map((x0, k) => (k === j ? v : x0)));
-      const hi = up > q[j]! ? at(up) : model;
-      const lo = down < q[j]! ? at(down) : model;
-      const span = (up > q[j]! ? up : q[j]!) - (down < q[j]! ? down : q[j]!);
+      const h = o.differenceStep;
+      const forward = q[j]! + h <= upper[j]!;
+      atBound.push(q[j]! - lower[j]! < h || upper[j]! - q[j]! < h);
+      const step = forward ? h : -Math.min(h, q[j]! - lower[j]!);
+      if (step === 0) return { ok: false, reason: 'failed', message: 'a parameter has bounds closer together than the difference step' };
+      const beside = modelAt(q.map((x0, k) => (k === j ? x0 + step : x0)));
       const column = new Float64Array(n);
-      for (let i = 0; i < n; i++) column[i] = (hi[i]! - lo[i]!) / (span * scale[j]!);
+      for (let i = 0; i < n; i++) column[i] = (beside[i]! - model[i]!) / (step * scale[j]!);
       if (column.some((v) => !Number.isFinite(v))) return { ok: false, reason: 'failed', message: `the model cannot be evaluated beside the optimum: ${lastFailure ?? 'a non-finite value'}` };
       jacobian.push(column);
     }
