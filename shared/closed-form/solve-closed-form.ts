@@ -17,6 +17,7 @@ import { dominantPair } from './second-order-estimates';
 import { stepMetrics } from './step-metrics';
 import { finalValue, initialValue, referenceFinalValue, steadyStateErrorOf } from './value-theorems';
 import { plantCautions } from '../scenario/plant-cautions';
+import { coverageNotes } from './coverage-notes';
 
 /**
  * The closed-form solution of a scenario: validates it (errors as values, naming the field),
@@ -51,10 +52,7 @@ function solveScenario(scenario: Scenario, options: Required<ClosedFormOptions>)
   const referenceFinal = referenceFinalValue(scenario);
   const steadyStateError = steadyStateErrorOf(angleFinal, referenceFinal);
   const report = stepMetrics(inverted.value, scenario, steadyStateError, options.settlingBand);
-  const notes: string[] = plantCautions(scenario);
-  if (scenario.controller.samplePeriod !== null) {
-    notes.push(`controller.samplePeriod (${scenario.controller.samplePeriod} s) is ignored: the closed form treats the continuous loop`);
-  }
+  const notes: string[] = [...plantCautions(scenario), ...coverageNotes(scenario)];
   return {
     ok: true,
     value: {

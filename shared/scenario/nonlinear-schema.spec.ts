@@ -31,6 +31,7 @@ describe('the nonlinear block', () => {
       staticFriction: 0,
       gravityTorque: 0,
       gravityOffset: 0,
+      torqueOffset: 0,
       deadBand: 0,
       computeDelay: false,
       encoderCounts: 0,

@@ -42,6 +42,11 @@ export const nonlinearSchema = z
     staticFriction: num('nonlinear.staticFriction').nullable().optional(),
     /** Gravity load m·g·l·sin(θ + offset). Default none (a horizontal joint). */
     gravity: gravityLoadSchema.nullable().optional(),
+    /**
+     * Constant torque at the joint, N·m, added to the torque channel from t = 0: a bias in the
+     * drive's torque or an unmodelled constant load, as a fit finds it. Default 0 (off).
+     */
+    torqueOffset: num('nonlinear.torqueOffset').optional(),
     /** Drive dead band at the joint, N·m: drive torques within ±deadBand do not reach the joint. Default 0 (off). */
     deadBand: num('nonlinear.deadBand').optional(),
     /** Sampled controller only: apply each computed torque one sample period late. Default false. */
@@ -83,6 +88,8 @@ export interface NonlinearSettings {
   gravityTorque: number;
   /** rad */
   gravityOffset: number;
+  /** N·m, on the torque channel. */
+  torqueOffset: number;
   /** N·m */
   deadBand: number;
   computeDelay: boolean;
@@ -104,6 +111,7 @@ export const NONLINEAR_DEFAULTS = {
   gravityOffset: 0,
   /** Standard gravity, m/s² (CGPM 1901, common practice). */
   gravityAcceleration: 9.80665,
+  torqueOffset: 0,
   deadBand: 0,
   computeDelay: false,
   encoderCounts: null,
@@ -126,6 +134,7 @@ export function resolveNonlinear(block: NonlinearBlock | undefined): NonlinearSe
     staticFriction: b.staticFriction ?? coulomb,
     gravityTorque: g ? g.mass * (g.acceleration ?? NONLINEAR_DEFAULTS.gravityAcceleration) * g.arm : 0,
     gravityOffset: g ? (g.offset ?? NONLINEAR_DEFAULTS.gravityOffset) : 0,
+    torqueOffset: b.torqueOffset ?? NONLINEAR_DEFAULTS.torqueOffset,
     deadBand: b.deadBand ?? NONLINEAR_DEFAULTS.deadBand,
     computeDelay: b.computeDelay ?? NONLINEAR_DEFAULTS.computeDelay,
     encoderCounts: b.encoderCounts ?? 0,

@@ -22,6 +22,7 @@ const everyField = () => ({
     { channel: 'torque', shape: 'pulse', amplitude: 0.2, delay: 0.5, width: 0.1 },
     { channel: 'torque', shape: 'decay', amplitude: 0.1, rate: 2 },
   ],
+  recordedInputs: [{ channel: 'torque', logId: 'log-1', signal: 'torque', hold: 'linear', delay: 0.01 }],
   horizon: 2,
   limits: { overshootPercent: 10, settlingTime: 1, steadyStateError: 0.01 },
   nonlinear: {
@@ -29,6 +30,7 @@ const everyField = () => ({
     coulombFriction: 0.03,
     staticFriction: 0.05,
     gravity: { mass: 0.3, arm: 0.15, offset: 1, acceleration: 9.8 },
+    torqueOffset: 0.02,
     deadBand: 0.01,
     encoderCounts: 4096,
     noiseStdDev: 1e-4,
@@ -39,6 +41,7 @@ const everyField = () => ({
 /** Where each catalogue path sits in everyField() (input terms: the term that uses the field). */
 const locate = (path: string): (string | number)[] => {
   const parts = path.split('.');
+  if (parts[0] === 'recordedInputs[]') return ['recordedInputs', 0, parts[1]!];
   if (parts[0] !== 'inputs[]') return parts;
   const term = { amplitude: 0, delay: 0, frequency: 0, width: 1, rate: 2 }[parts[1]!]!;
   return ['inputs', term, parts[1]!];
@@ -152,7 +155,7 @@ describe('the parameter catalogue', () => {
   describe('what the app reads from it', () => {
     it('marks exactly the plant physics as fittable by calibration', () => {
       const fittable = PARAMETER_CATALOGUE.filter((e) => e.fittable).map((e) => e.path);
-      expect(fittable).toEqual(['joint.inertia', 'joint.damping', 'joint.stiffness', 'nonlinear.coulombFriction', 'nonlinear.staticFriction']);
+      expect(fittable).toEqual(['joint.inertia', 'joint.damping', 'joint.stiffness', 'recordedInputs[].delay', 'nonlinear.coulombFriction', 'nonlinear.staticFriction', 'nonlinear.torqueOffset']);
     });
 
     it('marks the tuning form’s numbers as editable, nothing of limits, twin effects or run settings', () => {
@@ -167,12 +170,14 @@ describe('the parameter catalogue', () => {
     it('groups by the path’s block, the horizon with the initial state', () => {
       expect(catalogueEntry('horizon').group).toBe('initial');
       expect(catalogueEntry('inputs[].delay').group).toBe('inputs');
+      expect(catalogueEntry('recordedInputs[].delay').group).toBe('inputs');
       expect(catalogueEntry('nonlinear.gravity.mass').group).toBe('nonlinear');
       for (const e of PARAMETER_CATALOGUE) expect(PARAMETER_GROUP_TITLES[e.group]).toBeTruthy();
     });
 
     it('finds the entry of an actual input term’s path, and none for text or unknown fields', () => {
       expect(catalogueEntryAt('inputs.12.amplitude')?.path).toBe('inputs[].amplitude');
+      expect(catalogueEntryAt('recordedInputs.1.delay')?.path).toBe('recordedInputs[].delay');
       expect(catalogueEntryAt('joint.inertia')?.symbol).toBe('J');
       expect(catalogueEntryAt('controller.mode')).toBeUndefined();
       expect(catalogueEntryAt('inputs.x.amplitude')).toBeUndefined();

@@ -60,8 +60,9 @@ export interface CatalogueEntry {
   editable: boolean;
   /**
    * Whether calibration from measured runs may fit it: the plant's own physics (inertia, damping,
-   * stiffness, Coulomb and static friction), never the controller the engineer chooses, the
-   * scenario's inputs or limits, nor quantities read off a datasheet (gear ratio, encoder).
+   * stiffness, Coulomb and static friction, a constant torque offset) and the dead time between a
+   * logged input and the joint, never the controller the engineer chooses, the scenario's own
+   * inputs or limits, nor quantities read off a datasheet (gear ratio, encoder).
    */
   fittable: boolean;
 }
@@ -83,6 +84,8 @@ interface EntryFlags {
 /** The group is the path's first segment, except the horizon, which is read with the initial state. */
 function groupOf(path: string): ParameterGroup {
   if (path === 'horizon') return 'initial';
+  // A recorded input is a forcing term like the others; only its storage differs.
+  if (path.startsWith('recordedInputs[].')) return 'inputs';
   const head = path.split('.')[0]!.replace('[]', '');
   if (!(head in PARAMETER_GROUP_TITLES)) throw new Error(`no parameter group for "${path}"`);
   return head as ParameterGroup;
@@ -121,6 +124,7 @@ export const PARAMETER_CATALOGUE: readonly CatalogueEntry[] = [
   entry('inputs[].width', 'w', 'Pulse width', 's', positive('a pulse of no width does nothing'), atMost(HOUR, 'a pulse longer than the longest horizon (3600 s) is a step'), { editable: true }),
   entry('inputs[].frequency', 'ω', 'Angular frequency', 'rad/s', positive('a frequency of zero is a constant: use a step'), atMost(1e7, 'no joint responds above 1e7 rad/s (1.6 MHz)'), { editable: true }),
   entry('inputs[].rate', 'λ', 'Decay rate', '1/s', nonNegative('a negative rate grows without bound instead of decaying'), atMost(1e7, 'a decay faster than 1e7 /s (0.1 µs) is over before any joint moves: use an impulse'), { editable: true }),
+  entry('recordedInputs[].delay', 't_d', 'Input delay', 's', nonNegative('a logged input cannot act on the joint before it was logged'), atMost(HOUR, TIME_AFTER_HORIZON), { fittable: true }),
   entry('horizon', 't_end', 'Horizon', 's', positive('a run needs some time to simulate'), atMost(HOUR, 'longer runs belong in a batch job, not a bench'), { editable: true }),
   entry('limits.overshootPercent', 'M_p', 'Overshoot limit', '%', nonNegative('overshoot is measured as zero or more'), atMost(1000, 'an allowed overshoot above 1000 % is no limit at all')),
   entry('limits.settlingTime', 't_s', 'Settling-time limit', 's', positive('no joint settles in no time'), atMost(HOUR, 'a settling time past the longest horizon (3600 s) cannot be checked')),
@@ -128,6 +132,7 @@ export const PARAMETER_CATALOGUE: readonly CatalogueEntry[] = [
   entry('nonlinear.torqueLimit', 'τ_max', 'Torque limit', 'N·m', positive('a drive limited to no torque cannot move the joint (leave the limit out for none)'), atMost(1e9, TORQUE_MAX)),
   entry('nonlinear.coulombFriction', 'τ_c', 'Coulomb friction', 'N·m', nonNegative('friction opposes motion; a negative level would drive it'), atMost(1e9, TORQUE_MAX), { fittable: true }),
   entry('nonlinear.staticFriction', 'τ_s', 'Static friction', 'N·m', nonNegative('friction opposes motion; a negative level would drive it'), atMost(1e9, TORQUE_MAX), { fittable: true }),
+  entry('nonlinear.torqueOffset', 'τ_0', 'Torque offset', 'N·m', atLeast(-1e9, TORQUE_MAX), atMost(1e9, TORQUE_MAX), { fittable: true }),
   entry('nonlinear.gravity.mass', 'm', 'Link mass', 'kg', positive('a load without mass has no weight (leave gravity out for none)'), atMost(1e6, 'more than 1000 t on one joint is no robot or machine axis')),
   entry('nonlinear.gravity.arm', 'l', 'Centre-of-mass distance', 'm', positive('a mass on the axis itself has no gravity moment (leave gravity out for none)'), atMost(1000, 'a centre of mass more than 1 km from the axis is a unit slip')),
   entry('nonlinear.gravity.offset', 'φ', 'Gravity offset', 'rad', atLeast(-1000, 'an offset is an angle, normally within ±π; beyond ±1000 rad it is a unit slip'), atMost(1000, 'an offset is an angle, normally within ±π; beyond ±1000 rad it is a unit slip')),
@@ -157,7 +162,7 @@ export function catalogueEntry(path: string): CatalogueEntry {
  * @example catalogueEntryAt('inputs.0.amplitude')?.symbol // 'A'
  */
 export function catalogueEntryAt(path: string): CatalogueEntry | undefined {
-  return byPath.get(path.replace(/^inputs\.\d+\./, 'inputs[].'));
+  return byPath.get(path.replace(/^(inputs|recordedInputs)\.\d+\./, '$1[].'));
 }
 
 /**

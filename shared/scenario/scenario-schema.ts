@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { nonlinearSchema } from './nonlinear-schema';
 import { catalogueEntry, catalogueNumber as num } from './parameter-catalogue';
+import { MAX_RECORDED_INPUTS, recordedInputSchema } from './recorded-input-schema';
 
 /**
  * Kinetwin's scenario file, version 1: one joint, its controller, its initial state and the
@@ -105,6 +106,11 @@ export const scenarioSchema = z
     controller: controllerSchema,
     initial: z.strictObject({ angle: num('initial.angle').default(0), velocity: num('initial.velocity').default(0) }).default({ angle: 0, velocity: 0 }),
     inputs: z.array(inputTermSchema).max(MAX_INPUT_TERMS, { error: `at most ${MAX_INPUT_TERMS} input terms are allowed` }).default([]),
+    /**
+     * Logged signals replayed as forcing terms (recorded-input-schema.ts). Optional rather than
+     * defaulted so every scenario written before them still types; read it as `?? []`.
+     */
+    recordedInputs: z.array(recordedInputSchema).max(MAX_RECORDED_INPUTS, { error: `at most ${MAX_RECORDED_INPUTS} recorded inputs are allowed` }).optional(),
     /** Simulated time span, s. */
     horizon: num('horizon'),
     limits: limitsSchema.default({ overshootPercent: null, settlingTime: null, steadyStateError: null }),
@@ -117,6 +123,11 @@ export const scenarioSchema = z
           ctx.addIssue({ code: 'custom', path: ['inputs', i, 'channel'], message: 'a reference input needs a closed loop (controller.mode "pid")' });
         }
       });
+      (s.recordedInputs ?? []).forEach((term, i) => {
+        if (term.channel === 'reference') {
+          ctx.addIssue({ code: 'custom', path: ['recordedInputs', i, 'channel'], message: 'a recorded set-point needs a closed loop (controller.mode "pid")' });
+        }
+      });
     }
   });
 
@@ -125,5 +136,6 @@ export type Scenario = z.output<typeof scenarioSchema>;
 /** What a scenario file may contain before defaults are applied. */
 export type ScenarioInput = z.input<typeof scenarioSchema>;
 export type InputTerm = Scenario['inputs'][number];
+export type { RecordedInput } from './recorded-input-schema';
 export type Joint = Scenario['joint'];
 export type Controller = Scenario['controller'];

@@ -1,4 +1,7 @@
-import type { InputTerm, Scenario } from '../scenario/scenario-schema';
+import { resolveNonlinear } from '../scenario/nonlinear-schema';
+import type { InputTerm } from '../scenario/scenario-schema';
+import { addTrackEdges, recordedTracks, seekTrack, trackConstant, trackJumpAt, trackRate, trackValue, type RecordedTrack } from './recorded-forcing';
+import type { TwinScenario } from './recorded-samples';
 
 /**
  * The forcing terms acting on one stretch of a run, from a breakpoint up to (and including) the
@@ -33,7 +36,9 @@ export interface ForcingTerms {
   torqueImpulseAt(t: number): number;
   /**
    * The terms acting from `start` until the next breakpoint. Edges within `eps` of `start` count
-   * as reached (the run merges stops a roundoff apart).
+   * as reached (the run merges stops a roundoff apart). With recorded inputs the stretch reads
+   * their cursors, so it holds until the next call (the run keeps only the latest stretch);
+   * calls must come in increasing `start`, or from a fresh ForcingTerms.
    */
   stretchFrom(start: number, eps: number): ForcingStretch;
 }
@@ -126,8 +131,9 @@ interface ChannelStretch {
 }
 
 // Steps and pulses fold into one constant, so the common stretch (steps only) costs a return.
-function channelStretch(terms: readonly InputTerm[]): ChannelStretch {
-  let constant = 0;
+// `offset` is a constant that acts throughout (the torque offset of the nonlinear block).
+function channelStretch(terms: readonly InputTerm[], offset = 0): ChannelStretch {
+  let constant = offset;
   const varying: InputTerm[] = [];
   for (const term of terms) {
     if (term.shape === 'step' || term.shape === 'pulse') constant += term.amplitude;
@@ -154,22 +160,82 @@ function channelStretch(terms: readonly InputTerm[]): ChannelStretch {
   };
 }
 
+/** Times at which a term starts or stops acting, every one of them (the horizon aside), sorted. */
+function actingThresholds(inputs: readonly InputTerm[]): number[] {
+  const times: number[] = [];
+  for (const term of inputs) {
+    times.push(term.delay);
+    if (term.shape === 'pulse') times.push(term.delay + term.width!);
+  }
+  return times.sort((x, y) => x - y);
+}
+
+/** How many of the sorted `times` are at or before `t`. */
+function countAtOrBefore(times: readonly number[], t: number): number {
+  let n = 0;
+  while (n < times.length && times[n]! <= t) n++;
+  return n;
+}
+
 /**
- * Collects a scenario's forcing terms.
+ * Collects a scenario's forcing terms: its own input terms, the torque offset of its nonlinear
+ * block, and the recorded inputs whose samples withRecordings attached.
  * @example forcingTermsOf(scenario).stretchFrom(0.5, 1e-12).reference(0.7) // rad
  */
-export function forcingTermsOf(scenario: Scenario): ForcingTerms {
+export function forcingTermsOf(scenario: TwinScenario): ForcingTerms {
   const { inputs, horizon } = scenario;
+  const offset = resolveNonlinear(scenario.nonlinear).torqueOffset;
+  const tracks = recordedTracks(scenario);
   const edges = new Set<number>([0]);
   for (const term of inputs) {
     if (term.delay < horizon) edges.add(term.delay);
     if (term.shape === 'pulse' && term.delay + term.width! < horizon) edges.add(term.delay + term.width!);
   }
+  for (const track of tracks) addTrackEdges(track, horizon, edges);
+
+  // The acting set of the scenario's own terms changes only where start passes one of these, so
+  // its stretch is built once per change, not at every recorded sample.
+  const thresholds = actingThresholds(inputs);
+  let built = -1;
+  let reference = channelStretch([]);
+  let torque = channelStretch([], offset);
+  const rebuild = (start: number, eps: number) => {
+    const reached = countAtOrBefore(thresholds, start + eps);
+    if (reached === built) return;
+    built = reached;
+    const acting = inputs.filter((term) => actsFrom(term, start, eps));
+    reference = channelStretch(acting.filter((term) => term.channel === 'reference'));
+    torque = channelStretch(acting.filter((term) => term.channel === 'torque'), offset);
+  };
+
+  const referenceTracks: RecordedTrack[] = tracks.filter((track) => track.channel === 'reference');
+  const torqueTracks: RecordedTrack[] = tracks.filter((track) => track.channel === 'torque');
+  const sum = (list: readonly RecordedTrack[], t: number) => {
+    let total = 0;
+    for (let i = 0; i < list.length; i++) total += trackValue(list[i]!, t);
+    return total;
+  };
+  const sumRates = (list: readonly RecordedTrack[]) => {
+    let total = 0;
+    for (let i = 0; i < list.length; i++) total += trackRate(list[i]!);
+    return total;
+  };
+  /** With recorded inputs, one stretch object reading the cursors, updated in place. */
+  const withTracks = {
+    reference: (t: number) => reference.value(t) + sum(referenceTracks, t),
+    referenceRate: (t: number) => reference.rate(t) + sumRates(referenceTracks),
+    // Between samples a recorded set-point is constant or a straight line: no second derivative.
+    referenceAcceleration: (t: number) => reference.acceleration(t),
+    torque: (t: number) => torque.value(t) + sum(torqueTracks, t),
+    torqueConstant: true,
+  };
+
   return {
     breakpoints: [...edges].sort((x, y) => x - y),
     referenceJumpAt: (t) => {
       let total = 0;
       for (const term of inputs) if (term.channel === 'reference') total += termJumpAt(term, t);
+      for (const track of referenceTracks) total += trackJumpAt(track, t);
       return total;
     },
     torqueImpulseAt: (t) => {
@@ -178,16 +244,17 @@ export function forcingTermsOf(scenario: Scenario): ForcingTerms {
       return total;
     },
     stretchFrom: (start, eps) => {
-      const acting = inputs.filter((term) => actsFrom(term, start, eps));
-      const reference = channelStretch(acting.filter((term) => term.channel === 'reference'));
-      const torque = channelStretch(acting.filter((term) => term.channel === 'torque'));
-      return {
-        reference: reference.value,
-        referenceRate: reference.rate,
-        referenceAcceleration: reference.acceleration,
-        torque: torque.value,
-        torqueConstant: torque.constant,
-      };
+      rebuild(start, eps);
+      if (tracks.length === 0) {
+        return { reference: reference.value, referenceRate: reference.rate, referenceAcceleration: reference.acceleration, torque: torque.value, torqueConstant: torque.constant };
+      }
+      let constant = torque.constant;
+      for (const track of tracks) {
+        seekTrack(track, start, eps);
+        if (track.channel === 'torque') constant &&= trackConstant(track);
+      }
+      withTracks.torqueConstant = constant;
+      return withTracks;
     },
   };
 }

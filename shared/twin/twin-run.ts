@@ -502,7 +502,7 @@ export function createTwinRun(scenario: Scenario, options: TwinOptions = {}): Tw
       if (windupOn && run.windup.mode === 'sliding') loop.holdOnLimit();
       run.stretch = run.forcing.stretchFrom(run.time, mergeEps);
       // Edges at `time` of the earlier terms were applied on arrival; only the new one's remains.
-      applyJumpsAt(run.time, forcingTermsOf({ ...scenario, inputs: [added] }));
+      applyJumpsAt(run.time, forcingTermsOf({ ...scenario, inputs: [added], recordedInputs: [] }));
       if (frictionOn) chooseFrictionRegime();
       if (windupOn) loop.reviewRegime(true);
       if (outOfBounds(y)) stopAt(run.time, boundMessage(y, run.time));

@@ -2,6 +2,7 @@ import { parseScenario } from '../scenario/parse-scenario';
 import { resolveNonlinear } from '../scenario/nonlinear-schema';
 import type { Scenario } from '../scenario/scenario-schema';
 import type { FieldError, Parsed } from '../validation/field-errors';
+import { missingRecordingErrors, type TwinScenario } from './recorded-samples';
 
 /**
  * Most controller samples one twin run may take. Beyond it a run would hold the CPU for minutes
@@ -11,11 +12,12 @@ export const MAX_CONTROLLER_SAMPLES = 10_000_000;
 
 /**
  * Checks that involve more than one part of a scenario and matter to the twin only: effects on
- * the measured angle need a sampled controller to measure it, and the number of samples is capped.
+ * the measured angle need a sampled controller to measure it, the number of samples is capped, and
+ * a recorded input needs its samples (withRecordings in recorded-samples.ts).
  * @example twinScenarioErrors(scenario) // [] when the twin can run it
  */
-export function twinScenarioErrors(scenario: Scenario): FieldError[] {
-  const errors: FieldError[] = [];
+export function twinScenarioErrors(scenario: TwinScenario): FieldError[] {
+  const errors: FieldError[] = missingRecordingErrors(scenario);
   const nl = resolveNonlinear(scenario.nonlinear);
   const { controller } = scenario;
   const sampled = controller.mode === 'pid' && controller.samplePeriod !== null;

@@ -2,6 +2,7 @@ import os from 'node:os';
 import type { BenchResult } from './bench-result';
 import { benchChecks } from './checks-bench';
 import { benchClosedForm } from './closed-form-bench';
+import { benchFit } from './fit-bench';
 import { benchFrequency } from './frequency-bench';
 import { benchGainMap } from './gain-map-bench';
 import { benchLiveSessions } from './live-sessions-bench';
@@ -26,6 +27,7 @@ async function main() {
     ['frequency', benchFrequency],
     ['twin', benchTwin],
     ['gain map', benchGainMap],
+    ['fit', benchFit],
     ['live runs', () => benchLiveSessions(databaseUrl)],
     ['stiff live run', benchStiffRun],
     ['sign-in', () => benchSignIn(databaseUrl)],

@@ -4,6 +4,7 @@ import { GAIN_MAP_METHODS, type GainMapMethod } from '../../shared/gain-map/cell
 import { MAP_GAINS } from '../../shared/gain-map/gain-axes';
 import type { AxisRequest, GainMapRequest } from '../../shared/gain-map/gain-map-request';
 import { type FieldError, type Parsed } from '../../shared/validation/field-errors';
+import { FIT_OPTIONS, parseFitArguments, type FitCliCommand } from './fit-arguments';
 
 /** Output spacing of `kinetwin response` when --dt is not given, s. */
 export const DEFAULT_RESPONSE_DT = 0.001;
@@ -40,14 +41,15 @@ export type CliCommand =
   | { command: 'time'; file: string; dt: number; method: TimeMethod; runs: number }
   | { command: 'linearize'; file: string; angle: number; holding: 'feed-forward' | 'disturbance'; tolerance: number }
   | { command: 'sweep'; file: string; request: GainMapRequest; method: GainMapMethod; format: ResponseFormat }
+  | FitCliCommand
   | { command: 'help' };
 
-const COMMANDS = ['response', 'check', 'frequency', 'time', 'linearize', 'sweep'] as const;
-const COMMAND_LIST = '"response", "check", "frequency", "time", "linearize" or "sweep"';
+const COMMANDS = ['response', 'check', 'frequency', 'time', 'linearize', 'sweep', 'fit'] as const;
+const COMMAND_LIST = '"response", "check", "frequency", "time", "linearize", "sweep" or "fit"';
 /** Default agreement for `kinetwin linearize`'s operating range: 1 % of the peak. */
 export const DEFAULT_LINEARIZE_TOLERANCE = 0.01;
 /** Options that belong to one command only; the others refuse them by name. */
-const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'], linearize: ['angle', 'holding', 'tolerance'], sweep: ['x', 'y', 'z', 'log', 'method'] } as const;
+const OWN_OPTIONS = { response: ['dt', 'method'], check: [], frequency: ['from', 'to', 'points', 'method', 'channel', 'amplitude'], time: ['dt', 'method', 'runs'], linearize: ['angle', 'holding', 'tolerance'], sweep: ['x', 'y', 'z', 'log', 'method'], fit: FIT_OPTIONS } as const;
 
 export const USAGE = `usage:
   kinetwin response FILE [--dt 0.001] [--format csv|json] [--method closed-form|sim|both]
@@ -75,7 +77,14 @@ export const USAGE = `usage:
       each cell by the closed form (default) or the twin; JSON (default): the axes, a matrix per
       metric (rows along y, columns along x, null where undefined) and the suggested cell;
       CSV: one row per cell; exit 1 when the scenario sets limits and no cell meets them all
-exit codes: 0 ok, 1 limits not met (check, sweep), 2 invalid input, 3 the twin stopped early (what it has is printed)`;
+  kinetwin fit SCENARIO LOG.csv --params inertia,damping,stiffness[,coulombFriction,staticFriction,torqueOffset,inputDelay]
+                 [--columns t=time,angle=angle,torque=torque] [--units angle=deg,t=ms] [--counts-per-rev N]
+                 [--window 0:5] [--initial log|scenario] [--hold zoh|linear]
+      fits the twin's parameters to the log's angle (and velocity, where mapped) with the log's torque
+      or set-point replayed as recorded inputs, from the scenario's values; prints JSON with each
+      parameter's value and 95 % interval (low, high) under its name, rms, r2 and warnings;
+      --window in s from the log's first sample; --initial log starts from the first measured angle
+exit codes: 0 ok, 1 limits not met (check, sweep), 2 invalid input (a bad log names its row), 3 the twin stopped early (what it has is printed)`;
 
 /**
  * Parses the kinetwin command line (arguments after the script name). Errors name the argument.
@@ -105,6 +114,13 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
         y: { type: 'string' },
         z: { type: 'string' },
         log: { type: 'string', multiple: true },
+        params: { type: 'string' },
+        columns: { type: 'string' },
+        units: { type: 'string' },
+        window: { type: 'string' },
+        initial: { type: 'string' },
+        hold: { type: 'string' },
+        'counts-per-rev': { type: 'string' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -116,10 +132,12 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   const { values, positionals } = parsed;
   if (values['help'] || positionals[0] === 'help') return { ok: true, value: { command: 'help' } };
   if (positionals.length === 0) return fail('command', `a command is needed: ${COMMAND_LIST}`);
-  const [command, file, ...extra] = positionals;
+  const [command, file, ...rest] = positionals;
   if (!(COMMANDS as readonly string[]).includes(command!)) return fail('command', `unknown command "${command}": use ${COMMAND_LIST}`);
   const name = command as (typeof COMMANDS)[number];
   if (file === undefined) return fail('FILE', `${name} needs a scenario FILE`);
+  // fit takes the log as a second file.
+  const extra = name === 'fit' ? rest.slice(1) : rest;
   if (extra.length > 0) return fail('', `unexpected argument "${extra[0]}"`);
   for (const other of COMMANDS) {
     if (other === name) continue;
@@ -134,6 +152,7 @@ export function parseCliArguments(argv: readonly string[]): Parsed<CliCommand> {
   if (name === 'time') return timeCommand(file, values);
   if (name === 'linearize') return linearizeCommand(file, values);
   if (name === 'sweep') return sweepCommand(file, values);
+  if (name === 'fit') return parseFitArguments(file, rest[0], values);
   const errors: FieldError[] = [];
   const dt = dtOption(values, errors);
   const format = (values['format'] ?? 'csv') as string;

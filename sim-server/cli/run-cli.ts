@@ -16,6 +16,8 @@ import { evaluateCells } from '../../shared/gain-map/evaluate-cells';
 import { planGainMap } from '../../shared/gain-map/gain-map-plan';
 import { summarizeGainMap } from '../../shared/gain-map/gain-map-result';
 import { SAFETY_CAUTION } from '../../shared/protocol/library-api';
+import { runFitCommand, type ReadLog } from './fit-command';
+import { readLogFile } from '../logs/read-log-file';
 
 /** What the command line touches, passed in so the whole flow runs in tests without a process. */
 export interface CliIo {
@@ -23,6 +25,8 @@ export interface CliIo {
   /** Resolves once the chunk is handed off (honours back-pressure). */
   writeOut(chunk: string): Promise<void>;
   writeErr(text: string): void;
+  /** Reads a CSV log (fit); the streamed file reader when not given. */
+  readLog?: ReadLog;
 }
 
 /**
@@ -87,6 +91,15 @@ export async function runCli(argv: readonly string[], io: CliIo): Promise<number
     const doc = { scenario: linear, operatingAngle: cmd.angle, holding: cmd.holding, effectiveStiffness, holdingTorque, notes, range: range ? { tolerance: cmd.tolerance, ...range.value } : null };
     await io.writeOut(`${JSON.stringify(doc, null, 2)}\n`);
     return EXIT_OK;
+  }
+  if (cmd.command === 'fit') {
+    const fitted = await runFitCommand(cmd, scenario.value, io.readLog ?? readLogFile);
+    if (fitted.exitCode === EXIT_OK) {
+      await io.writeOut(`${JSON.stringify(fitted.document, null, 2)}\n`);
+      return EXIT_OK;
+    }
+    await invalid(io, fitted.what, fitted.errors, false);
+    return fitted.exitCode;
   }
   if (cmd.command === 'time') {
     const grid = checkGridSize(cmd.dt, scenario.value.horizon);
