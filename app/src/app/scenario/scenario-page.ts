@@ -25,7 +25,7 @@ import { readOnlyFacts } from './read-only-facts';
 import { RevisionEditor } from './revision-editor';
 import { scenarioControls } from './scenario-controls';
 import { SignOffDialog } from './sign-off-dialog';
-import { staleSaveOf } from './stale-save';
+import { staleSaveOf } from '../revision-save/stale-save';
 
 /** Entries of the scenario's activity log shown at once. */
 export const ACTIVITY_PAGE_SIZE = 20;
