@@ -422,6 +422,39 @@ describe('Bench', () => {
       expect(chart().closedForm()!.angle[late]).toBeCloseTo(before[late], 12);
     });
 
+    it('keeps a finished run\'s kicks as forcing terms of the draft: listed, editable, run inline, dropped by reset', async () => {
+      http.expectOne('/api/scenarios/5').flush(detail);
+      await fixture.whenStable();
+      button('run').click();
+      client.last('run:start').ack(started);
+      await settle();
+      kickButton('kick-torque-impulse')!.click();
+      const term = { channel: 'torque' as const, shape: 'impulse' as const, amplitude: 0.01, delay: 0.3 };
+      client.last('run:kick').ack({ status: 'ok', data: { runId: 'r1', term } });
+      await settle();
+      // A live run may still take kicks: keeping waits for its end.
+      expect(page.querySelector('[data-test=keep-kicks]')).toBeNull();
+      client.receive('run:end', { runId: 'r1', reason: 'finished', message: 'horizon reached', simulatedTime: 2 });
+      await settle();
+
+      button('keep-kicks').click();
+      await settle();
+      expect(page.querySelector('[data-test=kick-list]')).toBeNull();
+      expect(page.textContent).toContain('torque impulse 0.01 N·m·s at t = 0.3 s');
+      expect(field('inputs.1.amplitude').value).toBe('0.01');
+      expect(button('reset-edits').disabled).toBe(false);
+
+      button('run').click();
+      await fixture.whenStable();
+      const sent = client.last('run:start').payload as { scenario?: { inputs: unknown[] } };
+      expect(sent.scenario?.inputs).toEqual([...detail.scenario.inputs, term]);
+      await finishRun('r2');
+
+      button('reset-edits').click();
+      await settle();
+      expect(page.querySelector('input[name="inputs.1.amplitude"]')).toBeNull();
+    });
+
     it('offers a reference step only in closed loop and shows refused and unreadable kicks', async () => {
       await startLive();
       expect(kickButton('kick-reference-step')).not.toBeNull();

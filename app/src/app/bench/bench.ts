@@ -33,6 +33,7 @@ import { RunRecord, type SampleFlags, latestFlags } from './run-record';
 import { sampleReadings } from './run-sample-text';
 import { type RunStatus, isRunActive, isRunLive, runStatusText, statusOfRunEnd } from './run-status';
 import { applyFieldEdits } from '@kinetwin/shared/scenario/field-edits';
+import { withAppendedTerms } from '@kinetwin/shared/twin/kick-rule';
 import type { ScenarioEdits } from './scenario-draft';
 import { describeInputTerm, formatQuantity, scenarioFacts } from './scenario-facts';
 import { type FieldEdit, TuningForm } from './tuning-form';
@@ -60,8 +61,8 @@ interface AppliedKick {
 }
 
 /** The scenario with the run's kicks appended to its forcing terms: its closed form is the whole run's, by superposition. */
-function withKicks(scenario: Scenario, kicks: readonly AppliedKick[]): Scenario {
-  return kicks.length === 0 ? scenario : { ...scenario, inputs: [...scenario.inputs, ...kicks.map((kick) => kick.term)] };
+function withKicks(scenario: Scenario, kicks: readonly AppliedKick[]): Parsed<Scenario> {
+  return withAppendedTerms(scenario, kicks.map((kick) => kick.term));
 }
 
 /** The twin-against-closed-form comparison after a run. */
@@ -120,6 +121,9 @@ export class Bench {
   protected readonly angle = this.jointAngle.asReadonly();
   private readonly scenarioEdits = signal<ScenarioEdits>({});
   protected readonly edits = this.scenarioEdits.asReadonly();
+  /** Kicks of earlier runs the user kept as forcing terms of the draft, after the saved inputs. */
+  private readonly keptTerms = signal<readonly InputTerm[]>([]);
+  protected readonly keptKicks = computed(() => this.keptTerms().length > 0);
   private readonly engine = signal<ClosedFormEngine | null>(null);
   private readonly engineFailure = signal<string | null>(null);
   private readonly residualState = signal<ResidualState>({ kind: 'none' });
@@ -156,12 +160,20 @@ export class Bench {
     const state = this.detail();
     return state.status === 'failed' ? state.message : '';
   });
-  /** The stored scenario with the edits applied and validated; null before it loads. */
-  protected readonly edited = computed(() => {
+  /** The stored scenario with the kept kicks appended: what the tuning form's fields start from. */
+  protected readonly draftBase = computed((): Scenario | null => {
     const detail = this.scenario();
-    return detail ? applyFieldEdits(detail.scenario, this.scenarioEdits()) : null;
+    if (!detail) return null;
+    const base = withAppendedTerms(detail.scenario, this.keptTerms());
+    // Keeping checks the term limit first, so this holds; the stored scenario is the safe fallback.
+    return base.ok ? base.value : detail.scenario;
   });
-  protected readonly hasEdits = computed(() => Object.keys(this.scenarioEdits()).length > 0);
+  /** The draft (kept kicks, then the edits) applied and validated; null before it loads. */
+  protected readonly edited = computed(() => {
+    const base = this.draftBase();
+    return base ? applyFieldEdits(base, this.scenarioEdits()) : null;
+  });
+  protected readonly hasEdits = computed(() => Object.keys(this.scenarioEdits()).length > 0 || this.keptTerms().length > 0);
   protected readonly editErrors = computed(() => {
     const edited = this.edited();
     return edited && !edited.ok ? edited.errors : [];
@@ -186,7 +198,7 @@ export class Bench {
     const settled = this.settled();
     if (!settled) return { kind: 'loading' };
     const kicks = this.runKicks();
-    const whole: Parsed<Scenario> = settled.ok ? { ok: true, value: withKicks(settled.value, kicks) } : settled;
+    const whole: Parsed<Scenario> = settled.ok ? withKicks(settled.value, kicks) : settled;
     return closedFormView(this.engine(), whole);
   });
   protected readonly closedFormTrace = computed(() => {
@@ -206,6 +218,8 @@ export class Bench {
   protected readonly paused = computed(() => this.runStatus().kind === 'paused');
   protected readonly closedLoop = computed(() => this.current()?.controller.mode === 'pid');
   protected readonly kickEntries = computed((): KickEntry[] => this.runKicks().map((kick) => ({ id: kick.id, text: describeInputTerm(kick.term) })));
+  /** A finished run's kicks may join the draft; a live run may still take more. */
+  protected readonly canKeepKicks = computed(() => this.runKicks().length > 0 && !isRunActive(this.runStatus()));
   /** The scrub slider shows while the live run is paused, or once a run has ended with samples. */
   protected readonly canScrub = computed(() => {
     const status = this.runStatus();
@@ -248,7 +262,10 @@ export class Bench {
     // Another scenario (or a reload of this one) starts with no edits.
     effect(() => {
       this.scenario();
-      untracked(() => this.scenarioEdits.set({}));
+      untracked(() => {
+        this.scenarioEdits.set({});
+        this.keptTerms.set([]);
+      });
     });
 
     effect(() => {
@@ -284,6 +301,25 @@ export class Bench {
 
   protected resetEdits(): void {
     this.scenarioEdits.set({});
+    this.keptTerms.set([]);
+  }
+
+  /**
+   * Keeps the last run's kicks as forcing terms of the draft (after its inputs, at the times they
+   * landed), so the next run, the closed form and a save carry them; the kick list then empties.
+   */
+  protected keepKicks(): void {
+    const base = this.draftBase();
+    const kicks = this.runKicks();
+    if (!base || !this.canKeepKicks()) return;
+    const kept = withKicks(base, kicks);
+    if (!kept.ok) {
+      this.kickFailures.set(kept.errors);
+      return;
+    }
+    this.keptTerms.update((terms) => [...terms, ...kicks.map((kick) => kick.term)]);
+    this.runKicks.set([]);
+    this.kickFailures.set([]);
   }
 
   /**
@@ -293,7 +329,7 @@ export class Bench {
   protected async runScenario(): Promise<void> {
     const detail = this.scenario();
     if (!detail || isRunActive(this.runStatus())) return;
-    const choice = runChoice(detail.id, detail.scenario, this.scenarioEdits());
+    const choice = runChoice(detail.id, detail.scenario, this.scenarioEdits(), this.keptTerms());
     if (!choice.ok) {
       this.fieldErrors.set(choice.errors);
       this.runStatus.set({ kind: 'error', message: 'the edited scenario has errors: fix them or reset to saved' });
@@ -477,6 +513,8 @@ export class Bench {
   private async measureResidual(): Promise<void> {
     const ran = this.ranScenario;
     const feed = this.chartFeed();
+    // Kept as the run ended: keeping them as draft terms afterwards must not change this run's closed form.
+    const kicks = this.runKicks();
     if (!ran || feed.size === 0) return;
     let engine: ClosedFormEngine;
     try {
@@ -489,7 +527,8 @@ export class Bench {
     if (this.ranScenario !== ran || this.chartFeed().run !== feed.run) return;
     try {
       // The kicks joined the run's inputs on the server: the closed form of the run takes them too.
-      const solved = engine.solveClosedForm(withKicks(ran.scenario, this.runKicks()));
+      const whole = withKicks(ran.scenario, kicks);
+      const solved = whole.ok ? engine.solveClosedForm(whole.value) : whole;
       if (!solved.ok) {
         this.residualState.set({ kind: 'unavailable', message: `No residual: ${solved.errors[0]?.message ?? 'the scenario has no closed form'}.` });
         return;

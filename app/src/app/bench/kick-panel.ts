@@ -63,6 +63,10 @@ export interface KickEntry {
           <li class="numeric">{{ entry.text }}</li>
         }
       </ol>
+      @if (keepable()) {
+        <button mat-stroked-button type="button" data-test="keep-kicks" (click)="keep.emit()">Keep as forcing terms of the draft</button>
+        <p class="note">Adds these kicks to the scenario's inputs at the times they landed; the next run and a saved revision carry them.</p>
+      }
     }
   `,
   styleUrls: ['./bench-panel.css', './kick-panel.css'],
@@ -76,7 +80,11 @@ export class KickPanel {
   readonly kicks = input.required<readonly KickEntry[]>();
   /** What the server refused about the last kick. */
   readonly errors = input<readonly FieldError[]>([]);
+  /** Whether the kicks listed may join the draft as forcing terms (the run is over). */
+  readonly keepable = input(false);
   readonly kicked = output<KickRequest>();
+  /** Keep the listed kicks as forcing terms of the draft. */
+  readonly keep = output<void>();
 
   private readonly amplitudeText = signal('0.01');
   protected readonly amplitude = this.amplitudeText.asReadonly();
