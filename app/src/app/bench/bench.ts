@@ -18,7 +18,7 @@ import { KickPanel } from './kick-panel';
 import { LinearizePanel } from './linearize-panel';
 import { RootLocusPanel } from './root-locus-panel';
 import { SaveRevisionPanel } from './save-revision-panel';
-import { formatQuantity } from './scenario-facts';
+import { formatQuantity, formatResult } from './scenario-facts';
 import { type FieldEdit, TuningForm } from './tuning-form';
 
 /**
@@ -50,7 +50,7 @@ export class Bench {
     const residual = this.run.residual();
     if (residual.kind !== 'measured') return residual.kind === 'unavailable' ? residual.message : '';
     const { peak } = residual;
-    return `Last run: max |twin − closed form| = ${formatQuantity(peak.maxAbs, 'rad')} at t = ${formatQuantity(peak.time, 's')} (${peak.samples} twin samples${residual.inline ? ', edited scenario' : ''})`;
+    return `Last run: max |twin − closed form| = ${formatResult(peak.maxAbs, 'rad')} at t = ${formatQuantity(peak.time, 's')} (${peak.samples} twin samples${residual.inline ? ', edited scenario' : ''})`;
   });
 
   constructor() {
