@@ -62,11 +62,10 @@ export function describeInputTerm(term: InputTerm): string {
  * an open loop shows its mode only, since it has no gains.
  */
 export function scenarioFacts(scenario: Scenario): ScenarioFact[] {
-  const openLoop = scenario.controller.mode === 'open-loop';
+  // tuningGroups leaves out what the mode does not use (an open loop's gains).
   return tuningGroups(scenario)
     .filter((group) => !group.key.startsWith('inputs'))
     .flatMap((group) => group.fields)
-    .filter((field) => !(openLoop && field.path.startsWith('controller.') && field.path !== 'controller.mode'))
     .map((field) => ({ key: field.path, label: field.label, value: factValue(scenario, field) }));
 }
 

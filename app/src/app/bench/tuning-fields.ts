@@ -1,4 +1,4 @@
-import { CHOICE_PARAMETERS } from '@kinetwin/shared/scenario/choice-parameters';
+import { CHOICE_PARAMETERS, parameterApplies } from '@kinetwin/shared/scenario/choice-parameters';
 import { type CatalogueEntry, type ParameterGroup, catalogueEntry, fieldLabel, PARAMETER_CATALOGUE, PARAMETER_GROUP_TITLES } from '@kinetwin/shared/scenario/parameter-catalogue';
 import type { InputTerm, Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import { amplitudeUnit, termKeys } from '@kinetwin/shared/scenario/term-units';
@@ -45,11 +45,12 @@ function termFields(term: InputTerm, index: number): TuningField[] {
 /**
  * The tuning form's fields for a scenario, labels and units from the shared catalogue: joint,
  * controller, initial state and horizon, then each forcing term's amplitude and start time with
- * the extra quantity its shape has.
+ * the extra quantity its shape has. Under an open loop (`mode`, the edited one when the select
+ * changed it) the controller offers only its mode.
  */
-export function tuningGroups(scenario: Scenario): TuningGroup[] {
+export function tuningGroups(scenario: Scenario, mode: string = scenario.controller.mode): TuningGroup[] {
   return [
-    ...SCENARIO_GROUPS.map((group) => ({ key: group, title: PARAMETER_GROUP_TITLES[group], fields: groupFields(group) })),
+    ...SCENARIO_GROUPS.map((group) => ({ key: group, title: PARAMETER_GROUP_TITLES[group], fields: groupFields(group).filter((field) => parameterApplies(field.path, mode)) })),
     ...scenario.inputs.map((term, index) => ({
       key: `inputs.${index}`,
       title: `Term ${index}: ${term.channel} ${term.shape}`,

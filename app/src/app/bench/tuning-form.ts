@@ -35,7 +35,10 @@ export class TuningForm {
   readonly edited = output<FieldEdit>();
   readonly resetToSaved = output<void>();
 
-  protected readonly groups = computed(() => tuningGroups(this.saved()));
+  /** The controller mode the form shows fields for: the edited one once the select changed it. */
+  private readonly mode = computed(() => this.edits()['controller.mode'] ?? this.saved().controller.mode);
+  // Rebuilt only when the scenario or the mode changes, not on every keystroke.
+  protected readonly groups = computed(() => tuningGroups(this.saved(), this.mode()));
   protected readonly hasEdits = computed(() => this.otherChanges() || Object.keys(this.edits()).length > 0);
   private readonly errorsByField = computed(() => {
     const byField = new Map<string, string[]>();

@@ -7,6 +7,7 @@ import { type LibraryDetail, MAX_REVISION_NOTE_LENGTH } from '@kinetwin/shared/p
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { FieldError } from '@kinetwin/shared/validation/field-errors';
 import { type FieldEdits, applyFieldEdits, effectiveFieldEdits, fieldValueText } from '@kinetwin/shared/scenario/field-edits';
+import { parameterApplies } from '@kinetwin/shared/scenario/choice-parameters';
 import { EDITABLE_PARAMETERS } from './parameter-edits';
 import { RevisionSaveFlow } from '../revision-save/revision-save-flow';
 import { StaleSaveNotice } from '../revision-save/stale-save-notice';
@@ -43,7 +44,6 @@ export class RevisionEditor {
   /** The user dropped the edit to see the newer revision: the page should load it. */
   readonly reloadRequested = output<void>();
 
-  protected readonly parameters = EDITABLE_PARAMETERS;
   protected readonly maxNote = MAX_REVISION_NOTE_LENGTH;
 
   private readonly editBase = signal<EditBase | null>(null);
@@ -57,6 +57,11 @@ export class RevisionEditor {
   protected readonly done = this.flow.done;
 
   protected readonly base = this.editBase.asReadonly();
+  /** The fields the base's controller mode uses: an open loop offers no gains. */
+  protected readonly parameters = computed(() => {
+    const mode = this.editBase()?.scenario.controller.mode ?? 'pid';
+    return EDITABLE_PARAMETERS.filter((parameter) => parameterApplies(parameter.path, mode));
+  });
   private readonly pending = computed(() => {
     const base = this.editBase();
     return base ? effectiveFieldEdits(base.scenario, this.editTexts()) : {};
