@@ -1,4 +1,4 @@
-import { Injectable, computed, inject, signal } from '@angular/core';
+import { Injectable, computed, inject, linkedSignal, signal } from '@angular/core';
 import { toObservable, toSignal } from '@angular/core/rxjs-interop';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import { withAppendedTerms } from '@kinetwin/shared/twin/kick-rule';
@@ -7,7 +7,7 @@ import { debounceTime } from 'rxjs';
 import { BenchDraft } from './bench-draft';
 import { BenchLiveRun } from './bench-live-run';
 import { type ClosedFormEngine, loadClosedFormEngine } from './closed-form-engine';
-import { type ClosedFormView, closedFormView } from './closed-form-view';
+import { type ClosedFormTrace, type ClosedFormView, closedFormView } from './closed-form-view';
 
 /** Quiet time after the last keystroke before the closed form is solved again, ms. */
 export const CLOSED_FORM_DEBOUNCE_MS = 150;
@@ -35,9 +35,22 @@ export class BenchClosedForm {
     const whole: Parsed<Scenario> = settled.ok ? withAppendedTerms(settled.value, this.run.kickTerms()) : settled;
     return closedFormView(this.engine(), whole);
   });
-  readonly trace = computed(() => {
+  /**
+   * The trace on the chart: the newest solved one. While the draft has an error the last valid
+   * draft's trace stays, with `note` saying so, instead of the chart going blank.
+   */
+  readonly trace = linkedSignal<ClosedFormView, ClosedFormTrace | null>({
+    source: this.view,
+    computation: (view, previous) => (view.kind === 'solved' ? view.trace : view.kind === 'invalid' ? (previous?.value ?? null) : null),
+  });
+  /** Why the chart's closed form is missing or from an earlier draft; null while it is current. */
+  readonly note = computed((): string | null => {
     const view = this.view();
-    return view.kind === 'solved' ? view.trace : null;
+    if (view.kind === 'failed') return `No closed form on the chart: ${view.message}`;
+    if (view.kind !== 'invalid') return null;
+    const first = view.errors[0];
+    const what = first ? `${first.field ? `${first.field}: ` : ''}${first.message}` : 'the draft is not valid';
+    return this.trace() ? `The draft has an error (${what}); the chart keeps the last valid closed form.` : `No closed form on the chart: the draft has an error (${what}).`;
   });
 
   constructor() {
