@@ -72,7 +72,8 @@ export function scenarioFacts(scenario: Scenario): ScenarioFact[] {
 function factValue(scenario: Scenario, field: TuningField): string {
   const value = valueAtPath(scenario, field.path);
   if (typeof value === 'string') return choiceText(field.path, value);
-  if (typeof value !== 'number') return '—';
+  // An effect the scenario leaves out is off.
+  if (typeof value !== 'number') return field.path.startsWith('nonlinear.') ? 'none' : '—';
   // A derivative filter of 0 s means the derivative is unfiltered (the catalogue's lower bound).
   if (field.path === 'controller.derivativeFilter' && value === 0) return 'none';
   return formatQuantity(value, field.unit);

@@ -108,4 +108,18 @@ describe('TuningForm', () => {
     reset.click();
     expect(resets).toBe(1);
   });
+
+  it('shows the twin effects in words with units, empty for none, and reports a typed effect as an edit', async () => {
+    const legend = [...page.querySelectorAll('legend')].map((l) => l.textContent?.trim());
+    expect(legend).toContain('Twin effects');
+    const limit = field('nonlinear.torqueLimit')!;
+    expect(limit.value).toBe('');
+    expect(limit.closest('.field')?.textContent).toContain('Torque limit');
+    expect(limit.closest('.field')?.textContent).toContain('N·m');
+    // No gravity load in this scenario: its fields wait until it has one.
+    expect(field('nonlinear.gravity.arm')).toBeNull();
+    limit.value = '2';
+    limit.dispatchEvent(new Event('input'));
+    expect(edits).toEqual([{ path: 'nonlinear.torqueLimit', text: '2' }]);
+  });
 });
