@@ -137,7 +137,7 @@ describe('team library in Chromium: tune, save, hand off, review, sign off', () 
     await page.goto(`${baseUrl}/library/${scenarioId}`);
     const badge = page.locator(`[data-test=revision-row][data-revision="${savedRevision}"] [data-test=signed-off-badge]`);
     await expect.poll(() => badge.textContent()).toContain('Tomás');
-    await expect.poll(() => page.locator('[data-test=scenario-status]').first().textContent()).toContain('signed-off');
+    await expect.poll(() => page.locator('[data-test=scenario-status]').first().textContent()).toContain('Signed off');
 
     // The parameter diff of the signed-off revision against the one before it shows the kp change
     // and overlays both closed-form traces.

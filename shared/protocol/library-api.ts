@@ -180,6 +180,8 @@ export const memberRoleSchema = z.strictObject({ role: roleSchema });
 export const scenarioStatuses = ['draft', 'signed-off', 'archived'] as const;
 /** draft: the newest revision is not signed off; signed-off: it is; archived: soft-deleted. */
 export type ScenarioStatus = (typeof scenarioStatuses)[number];
+/** How every page names a status (the code words stay in the API and the filter values). */
+export const SCENARIO_STATUS_LABELS: Readonly<Record<ScenarioStatus, string>> = { draft: 'Draft', 'signed-off': 'Signed off', archived: 'Archived' };
 
 const tag = z
   .string({ error: 'tag must be text' })

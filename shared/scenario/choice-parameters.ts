@@ -37,3 +37,12 @@ export function choiceParameterAt(path: string): ChoiceParameter | undefined {
 export function choiceText(path: string, value: string): string {
   return byPath.get(path)?.choices[value] ?? value;
 }
+
+/**
+ * Whether a parameter means anything under a controller mode: an open loop has no controller, so
+ * its gains, derivative settings and sample period are neither shown nor offered for editing.
+ * @example parameterApplies('controller.kp', 'open-loop') // false
+ */
+export function parameterApplies(path: string, mode: string): boolean {
+  return mode === 'pid' || !path.startsWith('controller.') || path === 'controller.mode';
+}

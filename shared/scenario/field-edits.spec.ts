@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { applyFieldEdits, effectiveFieldEdits, fieldValueText, valueAtPath } from './field-edits';
+import { parseScenario } from './parse-scenario';
 import type { Scenario } from './scenario-schema';
 import { amplitudeUnit, termKeys } from './term-units';
 
@@ -114,5 +115,30 @@ describe('amplitudeUnit and termKeys', () => {
     expect(termKeys({ shape: 'pulse' })).toEqual(['amplitude', 'delay', 'width']);
     expect(termKeys({ shape: 'cosine' })).toEqual(['amplitude', 'delay', 'frequency']);
     expect(termKeys({ shape: 'decay' })).toEqual(['amplitude', 'delay', 'rate']);
+  });
+
+  describe('twin effects', () => {
+    const parsedBase = parseScenario({
+      kind: 'kinetwin/scenario', version: 1, name: 'effects',
+      joint: { inertia: 0.05, damping: 0.1, stiffness: 0 },
+      controller: { mode: 'pid', kp: 4, kd: 0.3 },
+      horizon: 2,
+      nonlinear: { coulombFriction: 0.02 },
+    });
+    if (!parsedBase.ok) throw new Error('fixture invalid');
+    const base = parsedBase.value;
+
+    it('adds an effect the scenario lacks and turns one off when its field is emptied', () => {
+      const limited = applyFieldEdits(base, { 'nonlinear.torqueLimit': '1.5', 'nonlinear.coulombFriction': ' ' });
+      expect(limited.ok && limited.value.nonlinear).toEqual({ torqueLimit: 1.5 });
+      expect(effectiveFieldEdits(base, { 'nonlinear.deadBand': '' })).toEqual({});
+    });
+
+    it('refuses a field of a gravity load the scenario does not have, and out-of-range values by name', () => {
+      const arm = applyFieldEdits(base, { 'nonlinear.gravity.arm': '0.3' });
+      expect(arm.ok ? null : arm.errors[0]!.field).toBe('nonlinear.gravity.arm');
+      const negative = applyFieldEdits(base, { 'nonlinear.deadBand': '-1' });
+      expect(negative.ok ? null : negative.errors.map((error) => error.field)).toContain('nonlinear.deadBand');
+    });
   });
 });

@@ -34,6 +34,18 @@ function setAtPath(data: unknown, path: string, value: unknown): void {
   (parent as Record<string, unknown>)[keys.at(-1)!] = value;
 }
 
+/**
+ * Whether a path names a twin effect the scenario may gain or lose by an edit: a catalogued
+ * number of the nonlinear block whose parent object exists (so a torque limit can be added to a
+ * scenario without one, but a gravity arm only once the gravity load exists).
+ */
+export function isOptionalEffect(base: Scenario, path: string): boolean {
+  const entry = catalogueEntryAt(path);
+  if (entry?.group !== 'nonlinear') return false;
+  const parent = valueAtPath(base, path.split('.').slice(0, -1).join('.'));
+  return parent !== null && typeof parent === 'object';
+}
+
 /** The scenario's own value at a path as a form shows it: the number or text, "" when absent or null. */
 export function fieldValueText(scenario: Scenario, path: string): string {
   const value = valueAtPath(scenario, path);
@@ -43,7 +55,7 @@ export function fieldValueText(scenario: Scenario, path: string): string {
 /**
  * The base scenario with the edits applied, validated by the shared scenario schema. A path must
  * name a catalogued number or a choice parameter the scenario has (an absent optional term field
- * is no field of this scenario); a number's text must be plain decimal, else it gets its own
+ * is no field of this scenario), or a twin effect it may gain (isOptionalEffect; empty text turns it off); a number's text must be plain decimal, else it gets its own
  * message (the schema would only see NaN). Every error names the dotted path. The base is untouched.
  * @example applyFieldEdits(gantry, { 'controller.kp': '6' }) // { ok: true, value: { …, controller: { …, kp: 6 } } }
  * @example applyFieldEdits(gantry, { 'joint.inertia': '' }) // { ok: false, errors: [{ field: 'joint.inertia', message: 'inertia is required' }] }
@@ -54,7 +66,8 @@ export function applyFieldEdits(base: Scenario, edits: FieldEdits): Parsed<Scena
   for (const [path, text] of Object.entries(edits)) {
     const number = catalogueEntryAt(path);
     const choice = choiceParameterAt(path);
-    if ((!number && !choice) || valueAtPath(base, path) === undefined) {
+    const effect = isOptionalEffect(base, path);
+    if ((!number && !choice) || (valueAtPath(base, path) === undefined && !effect)) {
       textErrors.push({ field: path, message: `${path} is not a field of this scenario` });
       continue;
     }
@@ -65,7 +78,9 @@ export function applyFieldEdits(base: Scenario, edits: FieldEdits): Parsed<Scena
     }
     const name = parameterName(number!);
     const trimmed = text.trim();
-    if (trimmed === '') textErrors.push({ field: path, message: `${name} is required` });
+    // An effect left empty is off: the key goes, and the schema's default (none) applies.
+    if (trimmed === '' && effect) delete (valueAtPath(draft, path.split('.').slice(0, -1).join('.')) as Record<string, unknown>)[path.split('.').at(-1)!];
+    else if (trimmed === '') textErrors.push({ field: path, message: `${name} is required` });
     else if (!DECIMAL.test(trimmed) || !Number.isFinite(Number(trimmed))) textErrors.push({ field: path, message: `${name} must be a finite number, got "${text}"` });
     else setAtPath(draft, path, Number(trimmed));
   }
@@ -86,6 +101,8 @@ export function effectiveFieldEdits(base: Scenario, edits: FieldEdits): FieldEdi
     Object.entries(edits).filter(([path, text]) => {
       const value = valueAtPath(base, path);
       if (typeof value === 'string') return text !== value;
+      // An absent effect left empty is no edit.
+      if ((value === undefined || value === null) && text.trim() === '') return false;
       return text.trim() === '' || Number(text.trim()) !== value;
     }),
   );

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { parseScenario, parseScenarioText } from './parse-scenario';
+import { scenarioFileText } from './scenario-file';
 
 const minimal = {
   kind: 'kinetwin/scenario',
@@ -56,5 +57,23 @@ describe('parseScenario', () => {
   it('turns a JSON syntax error into a document-level error', () => {
     const parsed = parseScenarioText('{"kind": ');
     expect(parsed).toMatchObject({ ok: false, errors: [{ field: '', message: expect.stringContaining('not valid JSON') }] });
+  });
+});
+
+describe('scenario files', () => {
+  const caution = 'A simulation is not a safety validation.';
+
+  it('carry the caution first in the file and read back to the same scenario', () => {
+    const parsed = parseScenario(minimal);
+    if (!parsed.ok) throw new Error('fixture invalid');
+    const text = scenarioFileText(parsed.value, caution);
+    expect(Object.keys(JSON.parse(text))[0]).toBe('safetyCaution');
+    expect(JSON.parse(text).safetyCaution).toBe(caution);
+    expect(parseScenarioText(text)).toEqual(parsed);
+  });
+
+  it('refuse a caution that is not text, naming it', () => {
+    const parsed = parseScenarioText(JSON.stringify({ ...minimal, safetyCaution: 3 }));
+    expect(parsed.ok ? '' : parsed.errors.map((error) => `${error.field} ${error.message}`).join('; ')).toContain('safetyCaution');
   });
 });

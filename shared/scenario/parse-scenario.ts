@@ -1,4 +1,5 @@
 import { parseWith, type Parsed } from '../validation/field-errors';
+import { scenarioOfFile } from './scenario-file';
 import { scenarioSchema, type Scenario } from './scenario-schema';
 
 /**
@@ -9,7 +10,10 @@ export function parseScenario(input: unknown): Parsed<Scenario> {
   return parseWith(scenarioSchema, input);
 }
 
-/** Validates scenario JSON text; a syntax error becomes a field error on the whole document. */
+/**
+ * Validates scenario JSON text (a file: its safety caution line is dropped first); a syntax
+ * error becomes a field error on the whole document.
+ */
 export function parseScenarioText(text: string): Parsed<Scenario> {
   let doc: unknown;
   try {
@@ -17,5 +21,5 @@ export function parseScenarioText(text: string): Parsed<Scenario> {
   } catch (err) {
     return { ok: false, errors: [{ field: '', message: `not valid JSON: ${(err as Error).message}` }] };
   }
-  return parseScenario(doc);
+  return parseScenario(scenarioOfFile(doc));
 }

@@ -1,6 +1,7 @@
 import { describe, expect, it } from 'vitest';
-import { MAX_INPUT_TERMS } from '../scenario/scenario-schema';
-import { admitKick, type KickContext } from './kick-rule';
+import { MAX_INPUT_TERMS, type Scenario } from '../scenario/scenario-schema';
+import { buildScenario } from './testing/build-scenario';
+import { admitKick, type KickContext, withAppendedTerms } from './kick-rule';
 
 const live: KickContext = { done: false, time: 0.3, horizon: 2, closedLoop: true, termCount: 1, mergeEps: 1e-12 };
 const impulse = { channel: 'torque', shape: 'impulse', amplitude: 0.01 } as const;
@@ -27,5 +28,24 @@ describe('the kick rule', () => {
     expect(admitKick(impulse, { ...live, termCount: MAX_INPUT_TERMS }).ok).toBe(false);
     expect(admitKick(impulse, { ...live, termCount: MAX_INPUT_TERMS - 1 }).ok).toBe(true);
     expect(admitKick(impulse, { ...live, done: true }).ok).toBe(false);
+  });
+});
+
+describe('appending terms to a scenario', () => {
+  const base: Scenario = buildScenario();
+  const kick = { channel: 'torque', shape: 'impulse', amplitude: 0.02, delay: 0.4 } as const;
+
+  it('puts the terms after the scenario\'s own, leaving the scenario untouched', () => {
+    const appended = withAppendedTerms(base, [kick]);
+    expect(appended.ok && appended.value.inputs).toEqual([...base.inputs, kick]);
+    expect(base.inputs).not.toContain(kick);
+    expect(withAppendedTerms(base, [])).toEqual({ ok: true, value: base });
+  });
+
+  it('refuses to pass the term limit, naming the inputs', () => {
+    const room = MAX_INPUT_TERMS - base.inputs.length;
+    expect(withAppendedTerms(base, Array.from({ length: room }, () => kick)).ok).toBe(true);
+    const over = withAppendedTerms(base, Array.from({ length: room + 1 }, () => kick));
+    expect(over.ok ? null : over.errors[0]!.field).toBe('inputs');
   });
 });

@@ -1,4 +1,4 @@
-import { inputTermSchema, MAX_INPUT_TERMS, type InputTerm } from '../scenario/scenario-schema';
+import { inputTermSchema, MAX_INPUT_TERMS, type InputTerm, type Scenario } from '../scenario/scenario-schema';
 import { parseWith, type Parsed } from '../validation/field-errors';
 import type { KickTerm } from './twin-types';
 
@@ -36,10 +36,24 @@ export function admitKick(term: KickTerm, run: KickContext): Parsed<InputTerm> {
   if (added.channel === 'reference' && !run.closedLoop) {
     return { ok: false, errors: [{ field: 'channel', message: 'a reference kick needs a closed loop (controller.mode "pid")' }] };
   }
-  if (run.termCount >= MAX_INPUT_TERMS) {
-    return { ok: false, errors: [{ field: '', message: `at most ${MAX_INPUT_TERMS} input terms are allowed in one run, kicks included` }] };
-  }
+  if (run.termCount >= MAX_INPUT_TERMS) return { ok: false, errors: [{ field: '', message: termLimitMessage() }] };
   // A kick a roundoff before now starts now, so it is not lost between two stops.
   if (added.delay < run.time) added.delay = run.time;
   return { ok: true, value: added };
+}
+
+function termLimitMessage(): string {
+  return `at most ${MAX_INPUT_TERMS} input terms are allowed in one run, kicks included`;
+}
+
+/**
+ * The scenario with terms appended to its forcing terms, after the ones it has: how a kick joins
+ * a run, so the closed form of a kicked run (by superposition) and a draft that keeps a run's
+ * kicks as input terms are the same scenario the twin ran. Refused past the term limit, as a kick is.
+ * @example withAppendedTerms(scenario, [kick]) // { ok: true, value: { …, inputs: [...scenario.inputs, kick] } }
+ */
+export function withAppendedTerms(scenario: Scenario, terms: readonly InputTerm[]): Parsed<Scenario> {
+  if (terms.length === 0) return { ok: true, value: scenario };
+  if (scenario.inputs.length + terms.length > MAX_INPUT_TERMS) return { ok: false, errors: [{ field: 'inputs', message: termLimitMessage() }] };
+  return { ok: true, value: { ...scenario, inputs: [...scenario.inputs, ...terms] } };
 }

@@ -11,12 +11,12 @@ import type { Database } from './database';
 
 export const DEMO_TEAM_NAME = 'Demo axis lab';
 
-/** The demo sign-ins; shown on the sign-in page in demo mode only. Invented people. */
+/** The demo sign-ins; shown on the sign-in page in demo mode only. Invented people. The role is not part of the name: pages show it beside the name, once. */
 export const DEMO_ACCOUNTS: { email: string; password: string; role: Role; displayName: string }[] = [
-  { email: 'rhea.engineer@demo.kinetwin.test', password: 'bench-demo-rhea', role: 'engineer', displayName: 'Rhea Okafor (demo engineer)' },
-  { email: 'tomas.lead@demo.kinetwin.test', password: 'bench-demo-tomas', role: 'lead', displayName: 'Tomás Varga (demo lead)' },
-  { email: 'ines.admin@demo.kinetwin.test', password: 'bench-demo-ines', role: 'admin', displayName: 'Inès Moreau (demo admin)' },
-  { email: 'kofi.viewer@demo.kinetwin.test', password: 'bench-demo-kofi', role: 'viewer', displayName: 'Kofi Mensah (demo viewer)' },
+  { email: 'rhea.engineer@demo.kinetwin.test', password: 'bench-demo-rhea', role: 'engineer', displayName: 'Rhea Okafor' },
+  { email: 'tomas.lead@demo.kinetwin.test', password: 'bench-demo-tomas', role: 'lead', displayName: 'Tomás Varga' },
+  { email: 'ines.admin@demo.kinetwin.test', password: 'bench-demo-ines', role: 'admin', displayName: 'Inès Moreau' },
+  { email: 'kofi.viewer@demo.kinetwin.test', password: 'bench-demo-kofi', role: 'viewer', displayName: 'Kofi Mensah' },
 ];
 
 /** Note of the revisions the seed writes; a demo file is re-seeded only when it differs from the last one. */

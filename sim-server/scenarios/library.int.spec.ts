@@ -197,8 +197,10 @@ describe('scenario library: revisions, concurrency, sign-off, search, import and
     expect(res.headers.get(SAFETY_CAUTION_HEADER)).toBe(SAFETY_CAUTION);
     expect(res.headers.get('content-disposition')).toBe('attachment; filename="Export-axis-r1.json"');
     const text = await res.text();
+    // The caution is in the file itself, not only in the header.
+    expect(JSON.parse(text).safetyCaution).toBe(SAFETY_CAUTION);
     const parsed = parseScenarioText(text);
-    expect(parsed.ok).toBe(true);
+    expect(parsed.ok && parsed.value.name).toBe('Export axis');
     const imported = await as('engineer').post('/api/scenarios/import', { file: JSON.parse(text), tags: ['imported'] });
     expect(imported.status).toBe(201);
     expect(await readJson(imported)).toMatchObject({ name: 'Export axis', revision: 1, tags: ['imported'] });

@@ -14,6 +14,7 @@ import {
   scenarioSaveSchema,
   type StaleSaveBody,
 } from '../../shared/protocol/library-api';
+import { scenarioFileText, scenarioOfFile } from '../../shared/scenario/scenario-file';
 import { MAX_NAME_LENGTH } from '../../shared/scenario/scenario-schema';
 import { userOf } from '../auth/require-user';
 import type { GuardedRouter } from '../auth/route-table';
@@ -39,7 +40,9 @@ export function scenarioRoutes({ route }: GuardedRouter, { db }: LibraryDeps): v
     async (req: Request, res: Response) => {
       const user = userOf(req);
       const body = bodyOf(req, schema, refusal);
-      const document = scenarioFromBody((body as Record<string, unknown>)[field], field);
+      const given = (body as Record<string, unknown>)[field];
+      // An exported file carries its safety caution as a key of its own; the document is the rest.
+      const document = scenarioFromBody(field === 'file' ? scenarioOfFile(given) : given, field);
       const id = await db.transaction(async (tx) => {
         const id = await insertScenario(tx, user.teamId, user.id, document, body.note || defaultNote, body.tags);
         await recordActivity(tx, { teamId: user.teamId, actorId: user.id, action, scenarioId: id, detail: { revision: 1 } });
@@ -145,8 +148,8 @@ export function scenarioRoutes({ route }: GuardedRouter, { db }: LibraryDeps): v
     });
   }
 
-  // The file is our scenario JSON, importable as it is; the caution travels in a header because
-  // the scenario format has no field for it, and the app shows it before the download.
+  // The file is our scenario JSON with the safety caution as its first key (import drops it), so
+  // the caution stays with the gains once the file is saved; the header lets the app show it first.
   route('get', '/:id/export', 'scenario.export', async (req, res) => {
     const user = userOf(req);
     const id = idParam(req, 'id', 'scenario id');
@@ -161,7 +164,7 @@ export function scenarioRoutes({ route }: GuardedRouter, { db }: LibraryDeps): v
       .set(SAFETY_CAUTION_HEADER, SAFETY_CAUTION)
       .set('content-disposition', `attachment; filename="${fileName}"`)
       .type('application/json')
-      .send(JSON.stringify(revision.scenario, null, 2) + '\n');
+      .send(scenarioFileText(revision.scenario, SAFETY_CAUTION));
   });
 }
 

@@ -1,4 +1,5 @@
-import { ChangeDetectionStrategy, Component, inject, signal } from '@angular/core';
+import { ChangeDetectionStrategy, Component, computed, inject, signal } from '@angular/core';
+import { toSignal } from '@angular/core/rxjs-interop';
 import { FormControl, FormGroup, ReactiveFormsModule, Validators } from '@angular/forms';
 import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
@@ -50,7 +51,7 @@ import { passwordRule } from './password-check';
           @if (error(); as message) {
             <p class="error" role="alert" data-test="sign-up-error">{{ message }}</p>
           }
-          <button mat-flat-button type="submit" data-test="sign-up" [disabled]="busy()">{{ busy() ? 'Creating…' : 'Create account' }}</button>
+          <button mat-flat-button type="submit" data-test="sign-up" [disabled]="busy() || passwordErrorShown()">{{ busy() ? 'Creating…' : 'Create account' }}</button>
         </form>
         <p class="links"><a routerLink="/sign-in">I have an account</a></p>
       </section>
@@ -73,6 +74,22 @@ export class SignUp {
   });
   protected readonly busy = signal(false);
   protected readonly error = signal<string | null>(null);
+  /** Every value, status and touched change of the form, so signals can follow it. */
+  private readonly formChange = toSignal(this.form.events, { initialValue: null });
+  /**
+   * Whether the password field shows its error (as Material does: invalid once touched): the
+   * button stays off until it is fixed, so a press never sends what the page already refuses.
+   */
+  protected readonly passwordErrorShown = computed(() => {
+    this.formChange();
+    const password = this.form.controls.password;
+    return password.invalid && (password.touched || password.dirty);
+  });
+
+  constructor() {
+    // The password rule reads the e-mail (a password must not contain it): judge it again when the e-mail changes.
+    this.email.valueChanges.subscribe(() => this.form.controls.password.updateValueAndValidity());
+  }
 
   protected async signUp(): Promise<void> {
     this.form.controls.password.updateValueAndValidity();

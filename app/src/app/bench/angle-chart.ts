@@ -1,4 +1,8 @@
 import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, afterNextRender, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
+import type { Layout } from 'plotly.js-dist-min';
+import { ANGLE_AXIS_LIMIT, angleAxis } from './angle-axis';
+import { PLOT_CONFIG, plotlyChartActions } from './chart-actions';
+import { ChartControls } from './chart-controls';
 import type { ChartFeed } from './chart-feed';
 import { joinBatches } from './chart-feed';
 import type { ClosedFormTrace } from './closed-form-view';
@@ -16,7 +20,8 @@ const CLOSED_FORM_COLOR = '#b4621b';
  * dashed, "closed form"), drawn with Plotly (imported on first use so it stays out of the first
  * page's bundle). New twin batches are appended with extendTraces; a new run, x range or closed
  * form redraws everything. The host's `data-samples` attribute counts the twin samples on the
- * plot, `data-closed-form-samples` the closed-form points.
+ * plot, `data-closed-form-samples` the closed-form points. An angle past ±ANGLE_AXIS_LIMIT clips
+ * the axis with a note (`data-axis-clipped`); `note` says why the closed form is missing or stale.
  */
 @Component({
   selector: 'kt-angle-chart',
@@ -25,9 +30,18 @@ const CLOSED_FORM_COLOR = '#b4621b';
     'data-test': 'angle-chart',
     '[attr.data-samples]': 'samples()',
     '[attr.data-closed-form-samples]': 'closedFormSamples()',
+    '[attr.data-axis-clipped]': 'axisNote() !== null',
   },
+  imports: [ChartControls],
   template: `
+    <kt-chart-controls [actions]="actions" chartName="angle" fileName="angle-chart" />
     <div #plot class="plot" role="img" aria-label="Joint angle in radians against time in seconds"></div>
+    @if (note(); as text) {
+      <p class="chart-note" data-test="chart-note" role="status">{{ text }}</p>
+    }
+    @if (axisNote(); as text) {
+      <p class="chart-note" data-test="axis-note">{{ text }}</p>
+    }
     @if (failure(); as message) {
       <p class="chart-failure">{{ message }}</p>
     }
@@ -40,6 +54,8 @@ export class AngleChart {
   readonly feed = input.required<ChartFeed>();
   /** The closed-form angle over the horizon; null when there is none to draw. */
   readonly closedForm = input<ClosedFormTrace | null>(null);
+  /** Why the closed form is not drawn, or drawn from an earlier draft; null when it is current. */
+  readonly note = input<string | null>(null);
 
   private readonly plot = viewChild.required<ElementRef<HTMLDivElement>>('plot');
   private readonly drawnSamples = signal(0);
@@ -48,6 +64,10 @@ export class AngleChart {
   protected readonly closedFormSamples = this.drawnClosedFormSamples.asReadonly();
   private readonly failureText = signal<string | null>(null);
   protected readonly failure = this.failureText.asReadonly();
+  private readonly axisText = signal<string | null>(null);
+  protected readonly axisNote = this.axisText.asReadonly();
+  private drawnLayout: Partial<Layout> | null = null;
+  protected readonly actions = plotlyChartActions(() => this.plotly, () => this.plot().nativeElement, () => this.drawnLayout);
 
   private plotly: Plotly | null = null;
   private destroyed = false;
@@ -119,21 +139,9 @@ export class AngleChart {
           line: { color: CLOSED_FORM_COLOR, width: 2, dash: 'dash' },
         });
       }
-      await plotly.react(
-        element,
-        traces,
-        {
-          margin: { l: 64, r: 16, t: 32, b: 48 },
-          xaxis: { title: { text: 'time (s)' }, range: [0, horizon], autorange: false, zeroline: false },
-          yaxis: { title: { text: 'angle (rad)' }, autorange: true },
-          paper_bgcolor: 'rgba(0,0,0,0)',
-          plot_bgcolor: 'rgba(0,0,0,0)',
-          font: { family: 'Roboto, system-ui, sans-serif' },
-          showlegend: true,
-          legend: { orientation: 'h', x: 0, y: 1.02, yanchor: 'bottom' },
-        },
-        { responsive: true, displaylogo: false },
-      );
+      const layout = this.layout(horizon, [all.angle, ...(closedForm ? [closedForm.angle] : [])]);
+      await plotly.react(element, traces, layout, PLOT_CONFIG);
+      this.drawnLayout = layout;
       this.drawnRun = feed.run;
       this.drawnHorizon = horizon;
       this.drawnBatches = feed.size;
@@ -148,6 +156,31 @@ export class AngleChart {
       await plotly.extendTraces(element, { x: [added.t], y: [added.angle] }, [0]);
       this.drawnBatches = feed.size;
       this.drawnSamples.update((count) => count + added.t.length);
+      // A runaway twin leaves the axis's range: clip it now rather than at the next full draw.
+      if (angleAxis([added.angle]).clipped) {
+        const all = joinBatches(feed.batches, 0, feed.size);
+        const layout = this.layout(horizon, [all.angle, ...(closedForm ? [closedForm.angle] : [])]);
+        await plotly.relayout(element, { yaxis: layout.yaxis } as Partial<Layout>);
+        this.drawnLayout = layout;
+      }
     }
+  }
+
+  /** The plot's layout: the horizon on x; angle autoscaled unless a trace leaves ±ANGLE_AXIS_LIMIT. */
+  private layout(horizon: number, angles: readonly ArrayLike<number>[]): Partial<Layout> {
+    const axis = angleAxis(angles);
+    this.axisText.set(axis.clipped ? axis.note : null);
+    return {
+      margin: { l: 64, r: 16, t: 32, b: 48 },
+      xaxis: { title: { text: 'time (s)' }, range: [0, horizon], autorange: false, zeroline: false, exponentformat: 'e' },
+      yaxis: axis.clipped
+        ? { title: { text: `angle (rad, clipped at ±${ANGLE_AXIS_LIMIT})` }, range: axis.range, autorange: false, exponentformat: 'e' }
+        : { title: { text: 'angle (rad)' }, autorange: true, exponentformat: 'e' },
+      paper_bgcolor: 'rgba(0,0,0,0)',
+      plot_bgcolor: 'rgba(0,0,0,0)',
+      font: { family: 'Roboto, system-ui, sans-serif' },
+      showlegend: true,
+      legend: { orientation: 'h', x: 0, y: 1.02, yanchor: 'bottom' },
+    };
   }
 }

@@ -1,6 +1,7 @@
 import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, afterNextRender, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import type { FrequencyResponse } from '@kinetwin/shared/frequency/frequency-response';
 import { bodeFigure } from './bode-figure';
+import { ChartControls } from './chart-controls';
 import { LazyPlot } from './lazy-plot';
 import type { MeasuredOverlay } from './sweep-readout';
 
@@ -14,8 +15,10 @@ import type { MeasuredOverlay } from './sweep-readout';
 @Component({
   selector: 'kt-bode-chart',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [ChartControls],
   host: { 'data-test': 'bode-chart', '[attr.data-traces]': 'traces()' },
   template: `
+    <kt-chart-controls [actions]="lazy.actions" chartName="Bode" fileName="bode-chart" />
     <div #plot class="plot" role="img" aria-label="Magnitude in decibels and phase in degrees against angular frequency in radians per second, log axis"></div>
     @if (failure(); as message) {
       <p class="chart-failure">{{ message }}</p>
@@ -35,7 +38,7 @@ export class BodeChart {
   private readonly failureText = signal<string | null>(null);
   protected readonly failure = this.failureText.asReadonly();
 
-  private readonly lazy = new LazyPlot(
+  protected readonly lazy = new LazyPlot(
     () => this.plot().nativeElement,
     () => {
       const response = untracked(this.response);

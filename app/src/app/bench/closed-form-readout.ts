@@ -1,7 +1,7 @@
 import type { ClosedFormSolution, PoleSummary, StepMetrics } from '@kinetwin/shared/closed-form/index';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import { type LimitedMetric, limitVerdicts } from '@kinetwin/shared/scenario/limit-verdicts';
-import { formatQuantity } from './scenario-facts';
+import { formatQuantity, formatResult } from './scenario-facts';
 
 /** One step metric with the scenario's limit beside it and the textbook estimate where there is one. */
 export interface MetricRow {
@@ -46,13 +46,13 @@ const STABILITY_TEXT: Record<ClosedFormSolution['stability'], string> = {
  * @example poleText({ re: -2, im: 3, multiplicity: 1 }) // "-2 ± 3j rad/s"
  */
 export function poleText(pole: PoleSummary): string {
-  const re = formatQuantity(pole.re);
-  const value = pole.im === 0 ? re : `${re} ± ${formatQuantity(Math.abs(pole.im))}j`;
+  const re = formatResult(pole.re);
+  const value = pole.im === 0 ? re : `${re} ± ${formatResult(Math.abs(pole.im))}j`;
   return pole.multiplicity > 1 ? `${value} rad/s (×${pole.multiplicity})` : `${value} rad/s`;
 }
 
 function quantityOrUndefined(value: number | null, unit: string): string {
-  return value === null ? 'undefined' : formatQuantity(value, unit);
+  return value === null ? 'undefined' : formatResult(value, unit);
 }
 
 const METRICS: { key: keyof StepMetrics; label: string; unit: string; limit: LimitedMetric | null }[] = [
@@ -93,17 +93,17 @@ export function closedFormReadout(solution: ClosedFormSolution, scenario: Scenar
       {
         key: 'reference',
         label: 'θ per unit reference',
-        value: openLoop ? 'none: no reference in open loop' : solution.dcGain.reference === null ? 'unbounded' : formatQuantity(solution.dcGain.reference, 'rad/rad'),
+        value: openLoop ? 'none: no reference in open loop' : solution.dcGain.reference === null ? 'unbounded' : formatResult(solution.dcGain.reference, 'rad/rad'),
       },
       {
         key: 'torque',
         label: 'θ per unit torque',
-        value: solution.dcGain.torque === null ? 'unbounded: a pole at s = 0' : formatQuantity(solution.dcGain.torque, 'rad/(N·m)'),
+        value: solution.dcGain.torque === null ? 'unbounded: a pole at s = 0' : formatResult(solution.dcGain.torque, 'rad/(N·m)'),
       },
     ],
     finalValue:
       solution.finalValue.applies && solution.finalValue.value !== null
-        ? { applies: true, text: formatQuantity(solution.finalValue.value, 'rad') }
+        ? { applies: true, text: formatResult(solution.finalValue.value, 'rad') }
         : { applies: false, text: `Does not apply: ${solution.finalValue.reason ?? 'the theorem gives no value here'}` },
     initialValue: {
       applies: initial.applies,

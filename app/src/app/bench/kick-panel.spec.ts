@@ -34,4 +34,18 @@ describe('KickPanel', () => {
     expect(asked).toHaveLength(1);
     expect(page.querySelector('[data-test=kick-errors]')?.textContent).toContain('amplitude is required');
   });
+
+  it('takes the amplitude before a run is live, with the kick buttons off until then', async () => {
+    const { fixture, page } = await panel(true);
+    fixture.componentRef.setInput('enabled', false);
+    await fixture.whenStable();
+    const amplitude = page.querySelector<HTMLInputElement>('input[name="kick.amplitude"]')!;
+    expect(amplitude.disabled).toBe(false);
+    amplitude.value = '0.05';
+    amplitude.dispatchEvent(new Event('input'));
+    expect(page.querySelector<HTMLButtonElement>('[data-test=kick-torque-impulse]')!.disabled).toBe(true);
+    fixture.componentRef.setInput('enabled', true);
+    await fixture.whenStable();
+    expect(amplitude.value).toBe('0.05');
+  });
 });

@@ -15,7 +15,7 @@ export interface KickEntry {
 
 /**
  * Kicks a live run: a torque impulse or step, or (closed loop only) a reference step, of the
- * amplitude typed. Holds only the amplitude text; the bench sends the kick and lists what the run
+ * amplitude typed. The amplitude can be set before Run; only the buttons wait for a live run. Holds only the amplitude text; the bench sends the kick and lists what the run
  * took. The amplitude's unit follows the button: N·m·s, N·m or rad.
  */
 @Component({
@@ -33,7 +33,6 @@ export interface KickEntry {
         inputmode="decimal"
         autocomplete="off"
         [value]="amplitude()"
-        [disabled]="!enabled()"
         (input)="typeAmplitude($event)"
       />
       <button mat-stroked-button type="button" data-test="kick-torque-impulse" [disabled]="!enabled()" (click)="kick('torque', 'impulse')">Torque impulse (N·m·s)</button>
@@ -43,7 +42,7 @@ export interface KickEntry {
       }
     </div>
     @if (!enabled()) {
-      <p class="note">Kicks act on a live run: press Run first.</p>
+      <p class="note">Set the amplitude now; the kick buttons act on a live run, once you press Run.</p>
     }
     @if (shownErrors().length > 0) {
       <ul data-test="kick-errors" class="errors" aria-live="polite">
@@ -63,6 +62,10 @@ export interface KickEntry {
           <li class="numeric">{{ entry.text }}</li>
         }
       </ol>
+      @if (keepable()) {
+        <button mat-stroked-button type="button" data-test="keep-kicks" (click)="keep.emit()">Keep as forcing terms of the draft</button>
+        <p class="note">Adds these kicks to the scenario's inputs at the times they landed; the next run and a saved revision carry them.</p>
+      }
     }
   `,
   styleUrls: ['./bench-panel.css', './kick-panel.css'],
@@ -76,7 +79,11 @@ export class KickPanel {
   readonly kicks = input.required<readonly KickEntry[]>();
   /** What the server refused about the last kick. */
   readonly errors = input<readonly FieldError[]>([]);
+  /** Whether the kicks listed may join the draft as forcing terms (the run is over). */
+  readonly keepable = input(false);
   readonly kicked = output<KickRequest>();
+  /** Keep the listed kicks as forcing terms of the draft. */
+  readonly keep = output<void>();
 
   private readonly amplitudeText = signal('0.01');
   protected readonly amplitude = this.amplitudeText.asReadonly();

@@ -1,4 +1,5 @@
 import type { Layout, ScatterData } from 'plotly.js-dist-min';
+import { type ChartActions, PLOT_CONFIG, plotlyChartActions } from './chart-actions';
 
 type Plotly = typeof import('plotly.js-dist-min').default;
 
@@ -19,6 +20,9 @@ export class LazyPlot {
   private plotly: Plotly | null = null;
   private destroyed = false;
   private drawnKey: readonly unknown[] | null = null;
+  private drawnLayout: Partial<Layout> | null = null;
+  /** Zoom, pan, reset and PNG export for the chart's own controls. */
+  readonly actions: ChartActions = plotlyChartActions(() => this.plotly, () => this.element(), () => this.drawnLayout);
   private queue: Promise<void> = Promise.resolve();
   private drawQueued = false;
 
@@ -65,8 +69,9 @@ export class LazyPlot {
     const next = this.current();
     if (!plotly || this.destroyed || next === null || (this.drawnKey !== null && sameKey(next.key, this.drawnKey))) return;
     const figure = next.figure();
-    await plotly.react(this.element(), figure.data, figure.layout, { responsive: true, displaylogo: false });
+    await plotly.react(this.element(), figure.data, figure.layout, PLOT_CONFIG);
     this.drawnKey = next.key;
+    this.drawnLayout = figure.layout;
     this.drawn(figure.data.length);
   }
 }

@@ -1,5 +1,6 @@
 import { ChangeDetectionStrategy, Component, DestroyRef, ElementRef, afterNextRender, effect, inject, input, signal, untracked, viewChild } from '@angular/core';
 import type { RootLocus } from '@kinetwin/shared/frequency/root-locus';
+import { ChartControls } from './chart-controls';
 import { LazyPlot } from './lazy-plot';
 import { locusFigure } from './root-locus-figure';
 
@@ -12,8 +13,10 @@ import { locusFigure } from './root-locus-figure';
 @Component({
   selector: 'kt-root-locus-chart',
   changeDetection: ChangeDetectionStrategy.OnPush,
+  imports: [ChartControls],
   host: { 'data-test': 'root-locus-chart', '[attr.data-traces]': 'traces()' },
   template: `
+    <kt-chart-controls [actions]="lazy.actions" chartName="root locus" fileName="root-locus" />
     <div #plot class="plot" role="img" aria-label="Closed-loop poles in the s-plane, real part against imaginary part, as one gain varies"></div>
     @if (failure(); as message) {
       <p class="chart-failure">{{ message }}</p>
@@ -31,7 +34,7 @@ export class RootLocusChart {
   private readonly failureText = signal<string | null>(null);
   protected readonly failure = this.failureText.asReadonly();
 
-  private readonly lazy = new LazyPlot(
+  protected readonly lazy = new LazyPlot(
     () => this.plot().nativeElement,
     () => {
       const locus = untracked(this.locus);

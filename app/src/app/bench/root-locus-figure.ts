@@ -73,8 +73,8 @@ export function locusFigure(locus: RootLocus): LocusFigure {
     data,
     layout: {
       margin: { l: 64, r: 16, t: 40, b: 48 },
-      xaxis: { title: { text: 'real part σ (1/s)' }, zeroline: false, autorange: true },
-      yaxis: { title: { text: 'imaginary part ω (rad/s)' }, zeroline: false, autorange: true },
+      xaxis: { title: { text: 'real part σ (1/s)' }, zeroline: false, autorange: true, exponentformat: 'e' },
+      yaxis: { title: { text: 'imaginary part ω (rad/s)' }, zeroline: false, autorange: true, exponentformat: 'e' },
       shapes,
       hovermode: 'closest',
       paper_bgcolor: 'rgba(0,0,0,0)',

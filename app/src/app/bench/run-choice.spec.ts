@@ -40,4 +40,11 @@ describe('runChoice', () => {
   it('gives the errors instead of a request for invalid edits', () => {
     expect(runChoice(7, saved, { 'joint.inertia': '0' })).toEqual({ ok: false, errors: [{ field: 'joint.inertia', message: 'inertia must be positive' }] });
   });
+
+  it('sends the kept kicks inline after the saved inputs, with edits reaching them', () => {
+    const kick = { channel: 'torque', shape: 'impulse', amplitude: 0.02, delay: 0.8 } as const;
+    const choice = runChoice(7, saved, { 'inputs.1.amplitude': '0.03' }, [kick]);
+    expect(choice.ok && choice.inline).toBe(true);
+    expect(choice.ok && choice.scenario.inputs.map((term) => [term.shape, term.amplitude])).toEqual([['step', 0.2], ['impulse', 0.03]]);
+  });
 });

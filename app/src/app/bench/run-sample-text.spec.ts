@@ -12,4 +12,9 @@ describe('sample readings', () => {
     expect(readings.find((r) => r.key === 'appliedTorque')?.value).toBe('—');
     expect(readings.map((r) => r.value).join(' ')).not.toContain('NaN');
   });
+
+  it('reads roundoff dust as 0', () => {
+    const readings = sampleReadings({ t: 1, angle: -2.220446049250313e-16, velocity: 4e-17, controllerTorque: 0, appliedTorque: 0, saturating: false, sticking: false });
+    expect([readings[1]!.value, readings[2]!.value]).toEqual(['0 rad', '0 rad/s']);
+  });
 });

@@ -1,5 +1,5 @@
 import type { RunSample } from '@kinetwin/shared/protocol/run-events';
-import { formatQuantity } from './scenario-facts';
+import { formatResult } from './scenario-facts';
 
 /** One labelled value of the scrub readout. */
 export interface SampleReading {
@@ -11,7 +11,7 @@ export interface SampleReading {
 
 // A value the twin did not send reads as a dash, never as NaN.
 function quantity(value: number, unit: string): string {
-  return Number.isFinite(value) ? formatQuantity(value, unit) : '—';
+  return Number.isFinite(value) ? formatResult(value, unit) : '—';
 }
 
 /**

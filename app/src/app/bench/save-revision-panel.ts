@@ -4,23 +4,23 @@ import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
 import { RouterLink } from '@angular/router';
-import { type LibraryDetail, MAX_REVISION_NOTE_LENGTH, type StaleSaveBody } from '@kinetwin/shared/protocol/library-api';
+import { type LibraryDetail, MAX_REVISION_NOTE_LENGTH } from '@kinetwin/shared/protocol/library-api';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { Parsed } from '@kinetwin/shared/validation/field-errors';
-import { firstValueFrom } from 'rxjs';
-import { apiErrorMessage, apiFieldErrors } from '../core/api-error-message';
-import { LibraryApi } from '../core/library-api';
-import { copyName, staleSaveOf } from '../scenario/stale-save';
+import { RevisionSaveFlow } from '../revision-save/revision-save-flow';
+import { StaleSaveNotice } from '../revision-save/stale-save-notice';
 
 /**
  * Saves the bench's edited scenario as a new revision on top of the one it loaded. When someone
  * saved in between (409, both versions in the answer), it offers to save the edit as a copy or
- * to load their revision; nothing is lost either way. Only shown save controls to those who may edit.
+ * to load their revision (RevisionSaveFlow, as on the scenario page); nothing is lost either way.
+ * Only those who may edit see the save controls.
  */
 @Component({
   selector: 'kt-save-revision-panel',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, RouterLink],
+  providers: [RevisionSaveFlow],
+  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, RouterLink, StaleSaveNotice],
   template: `
     <section class="save" aria-label="Save a revision">
       @if (canEdit()) {
@@ -40,15 +40,8 @@ import { copyName, staleSaveOf } from '../scenario/stale-save';
       @if (failure(); as text) {
         <p data-test="save-error" class="error" role="alert">{{ text }}</p>
       }
-      @if (stale(); as conflict) {
-        <div data-test="stale-save" class="stale" role="alertdialog" aria-label="Someone saved first">
-          <p>
-            {{ conflict.current.author.displayName }} saved revision {{ conflict.current.number }} after revision {{ conflict.yours.baseRevision }}, which your edit started
-            from. Nothing was saved and nothing is lost.
-          </p>
-          <button mat-flat-button type="button" data-test="save-as-copy" [disabled]="busy()" (click)="saveAsCopy()">Save mine as a copy</button>
-          <button mat-button type="button" data-test="reload-theirs" [disabled]="busy()" (click)="reloadTheirs()">Drop mine, load revision {{ conflict.current.number }}</button>
-        </div>
+      @if (flow.stale(); as conflict) {
+        <kt-stale-save-notice [conflict]="conflict" [busy]="flow.busy()" (copy)="saveAsCopy()" (reload)="reloadTheirs()" />
       }
       <a mat-button data-test="open-scenario-page" [routerLink]="['/library', detail().id]">Revisions, review and sign-off</a>
     </section>
@@ -58,12 +51,10 @@ import { copyName, staleSaveOf } from '../scenario/stale-save';
     .note { width: 100%; }
     .hint { margin: 0; font: var(--mat-sys-body-small); color: var(--mat-sys-on-surface-variant); }
     .error { margin: 0; color: var(--mat-sys-error); }
-    .stale { padding: 8px 12px; border-radius: 12px; background: var(--mat-sys-error-container); color: var(--mat-sys-on-error-container); }
-    .stale p { margin: 0 0 6px; }
   `,
 })
 export class SaveRevisionPanel {
-  private readonly library = inject(LibraryApi);
+  protected readonly flow = inject(RevisionSaveFlow);
 
   /** The scenario as loaded (GET /api/scenarios/:id answers with the library detail). */
   readonly detail = input.required<LibraryDetail>();
@@ -78,70 +69,36 @@ export class SaveRevisionPanel {
 
   protected readonly maxNote = MAX_REVISION_NOTE_LENGTH;
   protected readonly note = signal('');
-  protected readonly busy = signal(false);
-  protected readonly failure = signal<string | null>(null);
-  protected readonly done = signal<string | null>(null);
-  protected readonly stale = signal<StaleSaveBody | null>(null);
+  protected readonly busy = this.flow.busy;
+  protected readonly done = this.flow.done;
+  /** The server's words, with the fields it named (the bench's form shows only its own checks). */
+  protected readonly failure = computed(() => {
+    const text = this.flow.failure();
+    const fields = this.flow.fieldErrors();
+    return text !== null && fields.length ? `${text} ${fields.map((f) => `${f.field}: ${f.message}`).join('; ')}` : text;
+  });
 
   // Tolerates a detail without `access` (an older server answer): then nothing is editable.
   protected readonly canEdit = computed(() => this.detail().access?.edit === true);
-  protected readonly canSave = computed(() => this.canEdit() && this.changed() && this.edited()?.ok === true && !this.busy() && this.stale() === null);
+  protected readonly canSave = computed(() => this.canEdit() && this.changed() && this.edited()?.ok === true && !this.busy() && this.flow.stale() === null);
 
   protected async saveRevision(): Promise<void> {
     const edited = this.edited();
     if (!edited?.ok || !this.canSave()) return;
     const detail = this.detail();
-    this.busy.set(true);
-    this.failure.set(null);
-    this.done.set(null);
-    try {
-      const saved = await firstValueFrom(this.library.save(detail.id, { scenario: edited.value, note: this.note().trim(), baseRevision: detail.revision }));
-      this.note.set('');
-      this.done.set(`Saved as revision ${saved.revision}.`);
-      this.replaced.emit(saved);
-    } catch (failure) {
-      const stale = staleSaveOf(failure);
-      if (stale) {
-        this.stale.set(stale);
-      } else {
-        const fields = apiFieldErrors(failure);
-        this.failure.set(fields.length ? `${apiErrorMessage(failure)} ${fields.map((f) => `${f.field}: ${f.message}`).join('; ')}` : apiErrorMessage(failure));
-      }
-    } finally {
-      this.busy.set(false);
-    }
+    const saved = await this.flow.save({ scenarioId: detail.id, scenario: edited.value, note: this.note(), baseRevision: detail.revision });
+    if (!saved) return;
+    this.note.set('');
+    this.replaced.emit(saved);
   }
 
   protected async saveAsCopy(): Promise<void> {
-    const stale = this.stale();
-    if (!stale) return;
-    await this.run(async () => {
-      const mine = stale.yours.scenario;
-      const note = stale.yours.note || `Copy of an edit of revision ${stale.yours.baseRevision}, saved after revision ${stale.current.number} came in`;
-      const created = await firstValueFrom(this.library.create({ scenario: { ...mine, name: copyName(mine.name) }, note, tags: this.detail().tags ?? [] }));
-      this.stale.set(null);
-      this.copied.emit(created);
-    });
+    const created = await this.flow.saveAsCopy(this.detail().tags ?? []);
+    if (created) this.copied.emit(created);
   }
 
   protected async reloadTheirs(): Promise<void> {
-    await this.run(async () => {
-      const theirs = await firstValueFrom(this.library.get(this.detail().id));
-      this.stale.set(null);
-      this.done.set(`Showing revision ${theirs.revision}; your edit was dropped.`);
-      this.replaced.emit(theirs);
-    });
-  }
-
-  private async run(action: () => Promise<void>): Promise<void> {
-    this.busy.set(true);
-    this.failure.set(null);
-    try {
-      await action();
-    } catch (failure) {
-      this.failure.set(apiErrorMessage(failure));
-    } finally {
-      this.busy.set(false);
-    }
+    const theirs = await this.flow.loadTheirs(this.detail().id);
+    if (theirs) this.replaced.emit(theirs);
   }
 }

@@ -1,6 +1,6 @@
 import { catalogueEntry, fieldLabel } from '@kinetwin/shared/scenario/parameter-catalogue';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
-import { describeInputTerm, formatQuantity, scenarioFacts } from './scenario-facts';
+import { describeInputTerm, formatQuantity, formatResult, RESULT_RESOLUTION, scenarioFacts } from './scenario-facts';
 
 // Invented demo values.
 const scenario: Scenario = {
@@ -28,6 +28,17 @@ describe('formatQuantity', () => {
   it('switches to an exponent for tiny and huge magnitudes', () => {
     expect(formatQuantity(2e-5, 's')).toBe('2e-5 s');
     expect(formatQuantity(1.234567e7)).toBe('1.235e+7');
+  });
+});
+
+describe('formatResult', () => {
+  it('shows roundoff below the stated resolution as 0, and anything at or above it as a number', () => {
+    expect(formatResult(-2.220446049250313e-16, 'rad')).toBe('0 rad');
+    expect(formatResult(-0, 'rad')).toBe('0 rad');
+    expect(formatResult(RESULT_RESOLUTION, 'rad')).toBe('1e-12 rad');
+    expect(formatResult(0.25, 'rad')).toBe('0.25 rad');
+    // Typed parameters are never rounded away.
+    expect(formatQuantity(1e-13, 'kg·m²')).toBe('1e-13 kg·m²');
   });
 });
 

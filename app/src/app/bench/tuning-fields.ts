@@ -1,5 +1,6 @@
-import { CHOICE_PARAMETERS } from '@kinetwin/shared/scenario/choice-parameters';
+import { CHOICE_PARAMETERS, parameterApplies } from '@kinetwin/shared/scenario/choice-parameters';
 import { type CatalogueEntry, type ParameterGroup, catalogueEntry, fieldLabel, PARAMETER_CATALOGUE, PARAMETER_GROUP_TITLES } from '@kinetwin/shared/scenario/parameter-catalogue';
+import { isOptionalEffect, valueAtPath } from '@kinetwin/shared/scenario/field-edits';
 import type { InputTerm, Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import { amplitudeUnit, termKeys } from '@kinetwin/shared/scenario/term-units';
 
@@ -35,6 +36,15 @@ function groupFields(group: ParameterGroup): TuningField[] {
   return fields;
 }
 
+/**
+ * The twin effects (torque limit, friction, gravity, dead band, encoder, noise) in words with
+ * units from the catalogue: each the scenario has, or may gain by typing a value (empty is none).
+ * A gravity load's fields show once the scenario has one.
+ */
+function effectFields(scenario: Scenario): TuningField[] {
+  return PARAMETER_CATALOGUE.filter((e) => e.group === 'nonlinear' && (valueAtPath(scenario, e.path) !== undefined || isOptionalEffect(scenario, e.path))).map((e) => numberField(e));
+}
+
 function termFields(term: InputTerm, index: number): TuningField[] {
   return termKeys(term).map((key) => {
     const e = catalogueEntry(`inputs[].${key}`);
@@ -45,15 +55,17 @@ function termFields(term: InputTerm, index: number): TuningField[] {
 /**
  * The tuning form's fields for a scenario, labels and units from the shared catalogue: joint,
  * controller, initial state and horizon, then each forcing term's amplitude and start time with
- * the extra quantity its shape has.
+ * the extra quantity its shape has, then the twin effects. Under an open loop (`mode`, the edited one when the select
+ * changed it) the controller offers only its mode.
  */
-export function tuningGroups(scenario: Scenario): TuningGroup[] {
+export function tuningGroups(scenario: Scenario, mode: string = scenario.controller.mode): TuningGroup[] {
   return [
-    ...SCENARIO_GROUPS.map((group) => ({ key: group, title: PARAMETER_GROUP_TITLES[group], fields: groupFields(group) })),
+    ...SCENARIO_GROUPS.map((group) => ({ key: group, title: PARAMETER_GROUP_TITLES[group], fields: groupFields(group).filter((field) => parameterApplies(field.path, mode)) })),
     ...scenario.inputs.map((term, index) => ({
       key: `inputs.${index}`,
       title: `Term ${index}: ${term.channel} ${term.shape}`,
       fields: termFields(term, index),
     })),
+    { key: 'nonlinear', title: PARAMETER_GROUP_TITLES.nonlinear, fields: effectFields(scenario) },
   ];
 }

@@ -79,7 +79,7 @@ describe('TuningForm', () => {
   });
 
   it("shows each field's error under it and errors about no field above the form", async () => {
-    await showEdits({ 'joint.inertia': '-1', 'controller.kd': 'fast', 'inputs.1.width': '0', 'controller.mode': 'open-loop' });
+    await showEdits({ 'joint.inertia': '-1', 'controller.kd': 'fast', 'inputs.1.width': '0' });
     expect(field('joint.inertia')!.value).toBe('-1');
     expect(errorUnder('joint.inertia')).toBe('inertia must be positive');
     expect(errorUnder('controller.kd')).toBe('kd must be a finite number, got "fast"');
@@ -87,7 +87,17 @@ describe('TuningForm', () => {
     expect(field('joint.inertia')!.getAttribute('aria-invalid')).toBe('true');
     expect(errorUnder('controller.kp')).toBeNull();
     // Open loop with a reference term: the error names inputs.0.channel, which has no field here.
+    await showEdits({ 'controller.mode': 'open-loop' });
     expect(page.querySelector('[data-test=tuning-errors]')?.textContent).toContain('a reference input needs a closed loop');
+  });
+
+  it('offers no gains while the mode is open loop, and brings them back with the PID loop', async () => {
+    await showEdits({ 'controller.mode': 'open-loop' });
+    for (const name of ['controller.kp', 'controller.ki', 'controller.kd', 'controller.derivativeFilter', 'controller.derivativeOn']) expect(field(name), name).toBeNull();
+    expect(field('controller.mode')).not.toBeNull();
+    expect(field('joint.inertia')).not.toBeNull();
+    await showEdits({ 'controller.mode': 'pid' });
+    expect(field('controller.kp')).not.toBeNull();
   });
 
   it('offers Reset to saved only while there are edits', async () => {
@@ -97,5 +107,19 @@ describe('TuningForm', () => {
     expect(reset.disabled).toBe(false);
     reset.click();
     expect(resets).toBe(1);
+  });
+
+  it('shows the twin effects in words with units, empty for none, and reports a typed effect as an edit', async () => {
+    const legend = [...page.querySelectorAll('legend')].map((l) => l.textContent?.trim());
+    expect(legend).toContain('Twin effects');
+    const limit = field('nonlinear.torqueLimit')!;
+    expect(limit.value).toBe('');
+    expect(limit.closest('.field')?.textContent).toContain('Torque limit');
+    expect(limit.closest('.field')?.textContent).toContain('N·m');
+    // No gravity load in this scenario: its fields wait until it has one.
+    expect(field('nonlinear.gravity.arm')).toBeNull();
+    limit.value = '2';
+    limit.dispatchEvent(new Event('input'));
+    expect(edits).toEqual([{ path: 'nonlinear.torqueLimit', text: '2' }]);
   });
 });

@@ -24,17 +24,22 @@ export interface FieldEdit {
   styleUrl: './tuning-form.css',
 })
 export class TuningForm {
-  /** The stored scenario the edits apply to. */
+  /** The scenario the edits apply to: the stored one, with any kicks the draft kept. */
   readonly saved = input.required<Scenario>();
   readonly edits = input.required<ScenarioEdits>();
+  /** Whether the draft differs from the stored scenario beyond the typed edits (kept kicks). */
+  readonly otherChanges = input(false);
   /** Errors of the edited scenario; those naming a field show under it. */
   readonly errors = input.required<readonly FieldError[]>();
 
   readonly edited = output<FieldEdit>();
   readonly resetToSaved = output<void>();
 
-  protected readonly groups = computed(() => tuningGroups(this.saved()));
-  protected readonly hasEdits = computed(() => Object.keys(this.edits()).length > 0);
+  /** The controller mode the form shows fields for: the edited one once the select changed it. */
+  private readonly mode = computed(() => this.edits()['controller.mode'] ?? this.saved().controller.mode);
+  // Rebuilt only when the scenario or the mode changes, not on every keystroke.
+  protected readonly groups = computed(() => tuningGroups(this.saved(), this.mode()));
+  protected readonly hasEdits = computed(() => this.otherChanges() || Object.keys(this.edits()).length > 0);
   private readonly errorsByField = computed(() => {
     const byField = new Map<string, string[]>();
     for (const error of this.errors()) byField.set(error.field, [...(byField.get(error.field) ?? []), error.message]);

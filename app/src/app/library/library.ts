@@ -12,7 +12,7 @@ import { MatSortModule, type Sort } from '@angular/material/sort';
 import { MatTableModule } from '@angular/material/table';
 import { Router, RouterLink } from '@angular/router';
 import { ARCHIVED_SCENARIO_NOTE } from '@kinetwin/shared/library/archived-scenario';
-import type { LibraryPage, TeamMember } from '@kinetwin/shared/protocol/library-api';
+import { type LibraryPage, SCENARIO_STATUS_LABELS, type TeamMember, scenarioStatuses } from '@kinetwin/shared/protocol/library-api';
 import { catchError, debounce, distinctUntilChanged, firstValueFrom, map, of, switchMap, tap, timer } from 'rxjs';
 import { apiErrorMessage } from '../core/api-error-message';
 import { LibraryApi } from '../core/library-api';
@@ -23,8 +23,6 @@ import { DEFAULT_LIBRARY_VIEW, LIBRARY_PAGE_SIZES, type LibrarySort, type Librar
 
 /** Quiet time after the last keystroke in the search box before the library is asked again, ms. */
 export const SEARCH_DEBOUNCE_MS = 250;
-
-const STATUS_LABEL: Record<string, string> = { draft: 'Draft', 'signed-off': 'Signed off', archived: 'Archived' };
 
 /**
  * The team's scenarios: search, filters, sort and pages on the server; each name opens its bench,
@@ -44,7 +42,8 @@ export class Library {
 
   protected readonly columns = ['name', 'owner', 'status', 'tags', 'updatedAt', 'actions'] as const;
   protected readonly pageSizes = LIBRARY_PAGE_SIZES;
-  protected readonly statusLabel = STATUS_LABEL;
+  protected readonly statusLabel: Readonly<Record<string, string>> = SCENARIO_STATUS_LABELS;
+  protected readonly statuses = scenarioStatuses;
   protected readonly archivedNote = ARCHIVED_SCENARIO_NOTE;
 
   private readonly viewState = signal<LibraryView>(DEFAULT_LIBRARY_VIEW);

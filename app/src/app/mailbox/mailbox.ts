@@ -8,10 +8,12 @@ import { switchMap } from 'rxjs';
 import type { LoadState } from '../core/load-state';
 import { TeamApi } from '../core/team-api';
 import { readyValue, toLoadState } from '../core/to-load-state';
+import { type MailSegment, mailSegments } from './mail-segments';
 
 /**
  * The dev mailbox (admins): mail the local outbox transport kept for the team instead of sending
- * it. Shown as plain text, so no message can run script or fetch anything in this page.
+ * it. Shown as plain text with its http(s) addresses as links, so no message can run script or
+ * fetch anything in this page.
  */
 @Component({
   selector: 'kt-mailbox',
@@ -38,7 +40,7 @@ import { readyValue, toLoadState } from '../core/to-load-state';
                 <strong>{{ message.subject }}</strong>
                 <span class="meta">to {{ message.to }} · {{ message.createdAt | date: 'yyyy-MM-dd HH:mm:ss' }}</span>
               </summary>
-              <pre data-test="mail-text">{{ message.text }}</pre>
+              <pre data-test="mail-text">@for (segment of segmentsOf(message.text); track $index) {@if (segment.kind === 'link') {<a data-test="mail-link" [href]="segment.href">{{ segment.href }}</a>} @else {{{ segment.text }}}}</pre>
             </details>
           } @empty {
             <p class="note" data-test="mailbox-empty">No mail yet.</p>
@@ -71,6 +73,10 @@ export class Mailbox {
     const state = this.state();
     return state.status === 'failed' ? state.message : '';
   });
+
+  protected segmentsOf(text: string): MailSegment[] {
+    return mailSegments(text);
+  }
 
   protected refresh(): void {
     this.refreshes.update((n) => n + 1);

@@ -41,6 +41,8 @@ describe('diffSectionRows', () => {
       { section: 'inputs', path: 'inputs.0.channel', kind: 'changed', before: 'reference', after: 'torque' },
     ]).flatMap((group) => group.rows);
     expect(rows.map((row) => row.label)).toEqual(['Controller', 'term 1 · channel']);
+    // The mode's values in the words the select and the summary use.
+    expect([rows[0]!.before, rows[0]!.after]).toEqual(['PID loop', 'open loop']);
   });
 
   it('gives no sections for two identical revisions', () => {

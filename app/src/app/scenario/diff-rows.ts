@@ -1,4 +1,4 @@
-import { choiceParameterAt } from '@kinetwin/shared/scenario/choice-parameters';
+import { choiceParameterAt, choiceText } from '@kinetwin/shared/scenario/choice-parameters';
 import { catalogueEntryAt, fieldLabel } from '@kinetwin/shared/scenario/parameter-catalogue';
 import type { DiffSection, DiffValue, ScenarioChange } from '@kinetwin/shared/library/scenario-diff';
 
@@ -41,6 +41,11 @@ export function formatDiffValue(value: DiffValue): string {
   if (value === null) return '—';
   if (typeof value === 'string') return `“${value}”`;
   return String(value);
+}
+
+/** A changed value in words: a choice parameter's stored value as its list names it ("PID loop", not "pid"). */
+function valueText(path: string, value: DiffValue): string {
+  return typeof value === 'string' && choiceParameterAt(path) ? choiceText(path, value) : formatDiffValue(value);
 }
 
 /** A leaf's words: the catalogue's label and symbol, a choice parameter's label, else its key path. */
@@ -87,8 +92,8 @@ export function diffSectionRows(changes: readonly ScenarioChange[]): DiffSection
           path: change.path,
           label: rowLabel(change),
           kind: change.kind,
-          before: formatDiffValue(change.before),
-          after: formatDiffValue(change.after),
+          before: valueText(change.path, change.before),
+          after: valueText(change.path, change.after),
           unit: unitOf(change),
         })),
     }))

@@ -34,10 +34,19 @@ describe('readOnlyFacts', () => {
       'initial.angle',
       'initial.velocity',
       'horizon',
+      // Twin effects, each "none" while the scenario leaves it out (gravity's fields only with a gravity load).
+      'nonlinear.torqueLimit',
+      'nonlinear.coulombFriction',
+      'nonlinear.staticFriction',
+      'nonlinear.deadBand',
+      'nonlinear.encoderCounts',
+      'nonlinear.noiseStdDev',
+      'nonlinear.noiseSeed',
     ]);
     const byPath = Object.fromEntries(facts.map((f) => [f.path, f]));
     expect(byPath['controller.mode']).toEqual({ path: 'controller.mode', label: 'Controller', value: 'PID loop', unit: '' });
     expect(byPath['joint.inertia']).toEqual({ path: 'joint.inertia', label: fieldLabel(catalogueEntry('joint.inertia')), value: '0.05', unit: 'kg·m²' });
     expect(byPath['initial.angle']!.value).toBe('0.1');
+    expect(byPath['nonlinear.torqueLimit']).toMatchObject({ value: 'none', unit: 'N·m' });
   });
 });

@@ -24,6 +24,8 @@ export function readOnlyFacts(scenario: Scenario): ReadOnlyFact[] {
     .map((field) => {
       const value = valueAtPath(scenario, field.path);
       if (typeof value === 'string') return { path: field.path, label: field.label, value: choiceText(field.path, value), unit: '' };
-      return { path: field.path, label: field.label, value: value === undefined || value === null ? '—' : String(value), unit: field.unit };
+      // An effect the revision leaves out is off; any other missing value is a dash.
+      const missing = field.path.startsWith('nonlinear.') ? 'none' : '—';
+      return { path: field.path, label: field.label, value: value === undefined || value === null ? missing : String(value), unit: field.unit };
     });
 }

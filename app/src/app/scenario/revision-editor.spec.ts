@@ -168,4 +168,13 @@ describe('RevisionEditor', () => {
     expect(root.querySelector('[data-test=save-error]')?.textContent).toContain('You may not edit this scenario.');
     expect(root.querySelector('[data-test=stale-save]')).toBeNull();
   });
+
+  it('offers no controller gains for an open-loop scenario', async () => {
+    const open = parseScenario({ ...scenario(4), controller: { mode: 'open-loop' }, inputs: [{ channel: 'torque', shape: 'step', amplitude: 0.1 }] });
+    if (!open.ok) throw new Error('fixture invalid');
+    fixture.componentRef.setInput('detail', detail(5, open.value));
+    await settle();
+    expect(root.querySelector('[data-test="param-controller.kp"]')).toBeNull();
+    expect(root.querySelector('[data-test="param-joint.inertia"]')).not.toBeNull();
+  });
 });

@@ -3,15 +3,14 @@ import { MatButtonModule } from '@angular/material/button';
 import { MatFormFieldModule } from '@angular/material/form-field';
 import { MatIconModule } from '@angular/material/icon';
 import { MatInputModule } from '@angular/material/input';
-import { type LibraryDetail, MAX_REVISION_NOTE_LENGTH, type StaleSaveBody } from '@kinetwin/shared/protocol/library-api';
+import { type LibraryDetail, MAX_REVISION_NOTE_LENGTH } from '@kinetwin/shared/protocol/library-api';
 import type { Scenario } from '@kinetwin/shared/scenario/scenario-schema';
 import type { FieldError } from '@kinetwin/shared/validation/field-errors';
-import { firstValueFrom } from 'rxjs';
-import { apiErrorMessage, apiFieldErrors } from '../core/api-error-message';
-import { LibraryApi } from '../core/library-api';
 import { type FieldEdits, applyFieldEdits, effectiveFieldEdits, fieldValueText } from '@kinetwin/shared/scenario/field-edits';
+import { parameterApplies } from '@kinetwin/shared/scenario/choice-parameters';
 import { EDITABLE_PARAMETERS } from './parameter-edits';
-import { copyName, staleSaveOf } from './stale-save';
+import { RevisionSaveFlow } from '../revision-save/revision-save-flow';
+import { StaleSaveNotice } from '../revision-save/stale-save-notice';
 
 /** The revision an edit starts from: its number (sent as baseRevision) and its document. */
 interface EditBase {
@@ -22,17 +21,19 @@ interface EditBase {
 /**
  * Edits the newest revision's parameters and saves them as a new revision. A save that started
  * from an older revision comes back 409 with both versions; then the editor offers to save the
- * edit as a copy, to keep the edit on top of the newer revision, or to drop it and load theirs.
+ * edit as a copy, to keep the edit on top of the newer revision, or to drop it and load theirs
+ * (RevisionSaveFlow, the bench's save flow too).
  */
 @Component({
   selector: 'kt-revision-editor',
   changeDetection: ChangeDetectionStrategy.OnPush,
-  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule],
+  providers: [RevisionSaveFlow],
+  imports: [MatButtonModule, MatFormFieldModule, MatIconModule, MatInputModule, StaleSaveNotice],
   templateUrl: './revision-editor.html',
   styleUrl: './revision-editor.css',
 })
 export class RevisionEditor {
-  private readonly library = inject(LibraryApi);
+  protected readonly flow = inject(RevisionSaveFlow);
 
   /** The scenario as the server last sent it; a new value (after a save or reload) restarts the edit. */
   readonly detail = input.required<LibraryDetail>();
@@ -43,7 +44,6 @@ export class RevisionEditor {
   /** The user dropped the edit to see the newer revision: the page should load it. */
   readonly reloadRequested = output<void>();
 
-  protected readonly parameters = EDITABLE_PARAMETERS;
   protected readonly maxNote = MAX_REVISION_NOTE_LENGTH;
 
   private readonly editBase = signal<EditBase | null>(null);
@@ -51,17 +51,17 @@ export class RevisionEditor {
   protected readonly edits = this.editTexts.asReadonly();
   private readonly noteText = signal('');
   protected readonly note = this.noteText.asReadonly();
-  private readonly busy = signal(false);
-  protected readonly saving = this.busy.asReadonly();
-  private readonly failureText = signal<string | null>(null);
-  protected readonly failure = this.failureText.asReadonly();
-  private readonly serverErrors = signal<FieldError[]>([]);
-  private readonly staleBody = signal<StaleSaveBody | null>(null);
-  protected readonly stale = this.staleBody.asReadonly();
-  private readonly doneText = signal<string | null>(null);
-  protected readonly done = this.doneText.asReadonly();
+  protected readonly saving = this.flow.busy;
+  protected readonly failure = this.flow.failure;
+  protected readonly stale = this.flow.stale;
+  protected readonly done = this.flow.done;
 
   protected readonly base = this.editBase.asReadonly();
+  /** The fields the base's controller mode uses: an open loop offers no gains. */
+  protected readonly parameters = computed(() => {
+    const mode = this.editBase()?.scenario.controller.mode ?? 'pid';
+    return EDITABLE_PARAMETERS.filter((parameter) => parameterApplies(parameter.path, mode));
+  });
   private readonly pending = computed(() => {
     const base = this.editBase();
     return base ? effectiveFieldEdits(base.scenario, this.editTexts()) : {};
@@ -73,9 +73,9 @@ export class RevisionEditor {
   });
   protected readonly errors = computed((): FieldError[] => {
     const result = this.result();
-    return [...(result && !result.ok ? result.errors : []), ...this.serverErrors()];
+    return [...(result && !result.ok ? result.errors : []), ...this.flow.fieldErrors()];
   });
-  protected readonly canSave = computed(() => this.changed() && this.result()?.ok === true && !this.saving() && this.staleBody() === null);
+  protected readonly canSave = computed(() => this.changed() && this.result()?.ok === true && !this.saving() && this.stale() === null);
 
   /** Set by "keep my edit on theirs": the next detail only moves the base, the edits stay. */
   private keepEditsOnNextDetail = false;
@@ -91,7 +91,7 @@ export class RevisionEditor {
         }
         this.editTexts.set({});
         this.noteText.set('');
-        this.staleBody.set(null);
+        this.flow.resolve();
       });
     });
   }
@@ -109,8 +109,7 @@ export class RevisionEditor {
 
   protected edit(path: string, text: string): void {
     this.editTexts.update((edits) => ({ ...edits, [path]: text }));
-    this.serverErrors.set([]);
-    this.doneText.set(null);
+    this.flow.clearMessages();
   }
 
   protected setNote(text: string): void {
@@ -119,67 +118,38 @@ export class RevisionEditor {
 
   protected discardEdits(): void {
     this.editTexts.set({});
-    this.serverErrors.set([]);
-    this.failureText.set(null);
+    this.flow.clearMessages();
   }
 
   protected async saveRevision(): Promise<void> {
     const base = this.editBase();
     const result = this.result();
     if (!base || !result?.ok || !this.canSave()) return;
-    this.busy.set(true);
-    this.failureText.set(null);
-    this.doneText.set(null);
-    try {
-      const detail = await firstValueFrom(this.library.save(this.detail().id, { scenario: result.value, note: this.noteText().trim(), baseRevision: base.revision }));
-      this.doneText.set(`Saved as revision ${detail.revision}.`);
-      this.saved.emit(detail);
-    } catch (failure) {
-      const stale = staleSaveOf(failure);
-      if (stale) {
-        this.staleBody.set(stale);
-      } else {
-        this.failureText.set(apiErrorMessage(failure));
-        this.serverErrors.set(apiFieldErrors(failure));
-      }
-    } finally {
-      this.busy.set(false);
-    }
+    const detail = await this.flow.save({ scenarioId: this.detail().id, scenario: result.value, note: this.noteText(), baseRevision: base.revision });
+    if (detail) this.saved.emit(detail);
   }
 
   /** Saves the refused edit as a new scenario of its own: both versions stay. */
   protected async saveAsCopy(): Promise<void> {
-    const stale = this.staleBody();
-    if (!stale) return;
-    this.busy.set(true);
-    this.failureText.set(null);
-    try {
-      const mine = stale.yours.scenario;
-      const note = stale.yours.note || `Copy of an edit of revision ${stale.yours.baseRevision}, saved after revision ${stale.current.number} came in`;
-      const created = await firstValueFrom(this.library.create({ scenario: { ...mine, name: copyName(mine.name) }, note, tags: this.detail().tags }));
-      this.staleBody.set(null);
-      this.editTexts.set({});
-      this.copied.emit(created);
-    } catch (failure) {
-      this.failureText.set(apiErrorMessage(failure));
-    } finally {
-      this.busy.set(false);
-    }
+    const created = await this.flow.saveAsCopy(this.detail().tags);
+    if (!created) return;
+    this.editTexts.set({});
+    this.copied.emit(created);
   }
 
   /** Moves the edit onto the newer revision: untouched fields take its values, edited ones keep mine. */
   protected keepMineOnTheirs(): void {
-    const stale = this.staleBody();
+    const stale = this.stale();
     if (!stale) return;
     this.editBase.set({ revision: stale.current.number, scenario: stale.current.scenario });
-    this.staleBody.set(null);
+    this.flow.resolve();
     this.keepEditsOnNextDetail = true;
     this.reloadRequested.emit();
   }
 
   /** Drops the edit and loads the newer revision. */
   protected reloadTheirs(): void {
-    this.staleBody.set(null);
+    this.flow.resolve();
     this.editTexts.set({});
     this.reloadRequested.emit();
   }

@@ -46,8 +46,8 @@ describe('ScenarioPage controls by role', () => {
     for (const request of http.match(() => true)) {
       const url = request.request.url;
       if (url === '/api/scenarios/9') request.flush(detail(role));
-      else if (url === '/api/scenarios/9/revisions') request.flush({ items: [revision] });
-      else if (url === '/api/scenarios/9/revisions/2') request.flush(revision);
+      else if (url === '/api/scenarios/9/revisions') request.flush({ items: [{ ...revision, signOff }] });
+      else if (url === '/api/scenarios/9/revisions/2') request.flush({ ...revision, signOff });
       else if (url === '/api/scenarios/9/comments') request.flush({ items: [] });
       else if (url === '/api/scenarios/9/activity') request.flush({ items: [], page: 1, pageSize: 20, total: 0 });
       else if (url === '/api/team') request.flush({ team: { id: 1, name: 'Lab' }, members: [] });
@@ -75,9 +75,13 @@ describe('ScenarioPage controls by role', () => {
   const shown = (names: string[]) => names.filter((name) => root.querySelector(`[data-test=${name}]`) !== null);
   const CONTROLS = ['save-revision', 'hand-off', 'sign-off', 'comment-body', 'rename', 'archive', 'duplicate', 'export'];
 
+  /** The viewed revision's sign-off; most tests look at an unsigned one. */
+  let signOff: RevisionDetail['signOff'] = null;
+
   afterEach(() => {
     http.verify();
     archivedAt = null;
+    signOff = null;
   });
 
   it('shows a viewer the parameters read-only and no control that changes anything, export aside', async () => {
@@ -97,6 +101,7 @@ describe('ScenarioPage controls by role', () => {
     await open('engineer');
     expect(shown(CONTROLS)).toEqual(['duplicate', 'export']);
     expect(root.querySelector('[data-test=unarchive]')).not.toBeNull();
+    expect(root.querySelector('[data-test=scenario-status]')?.textContent?.trim()).toBe('Archived');
     const reason = root.querySelector<HTMLElement>('[data-test=archived-reason]')!;
     expect(reason.textContent?.trim()).toBe(ARCHIVED_SCENARIO_NOTE);
     const bench = root.querySelector<HTMLElement>('[data-test=open-bench]')!;
@@ -116,5 +121,13 @@ describe('ScenarioPage controls by role', () => {
   it('gives a lead sign-off and comments but no editor on a scenario that is not theirs', async () => {
     await open('lead');
     expect(shown(CONTROLS)).toEqual(['hand-off', 'sign-off', 'comment-body', 'duplicate', 'export']);
+  });
+
+  it('shows who signed the viewed revision off and the note they wrote', async () => {
+    signOff = { by: { id: 4, displayName: 'Ada' }, at: '2026-12-01T12:00:00.000Z', note: 'Checked on the stand at 20 % torque' };
+    await open('viewer');
+    expect(root.querySelector('[data-test=viewed-signed-off]')?.textContent).toContain('Signed off by Ada');
+    expect(root.querySelector('[data-test=sign-off-note]')?.textContent).toContain('Checked on the stand at 20 % torque');
+    expect(root.querySelector('[data-test=scenario-status]')?.textContent?.trim()).toBe('Draft');
   });
 });

@@ -8,7 +8,7 @@ import { MatInputModule } from '@angular/material/input';
 import { Title } from '@angular/platform-browser';
 import { Router, RouterLink } from '@angular/router';
 import type { ActivityPage, Comment, LibraryDetail, RevisionDetail, RevisionDiff, RevisionSummary, TeamMember } from '@kinetwin/shared/protocol/library-api';
-import { SAFETY_CAUTION } from '@kinetwin/shared/protocol/library-api';
+import { SAFETY_CAUTION, SCENARIO_STATUS_LABELS } from '@kinetwin/shared/protocol/library-api';
 import { ARCHIVED_SCENARIO_NOTE } from '@kinetwin/shared/library/archived-scenario';
 import { combineLatest, firstValueFrom, map, of, switchMap } from 'rxjs';
 import { apiErrorMessage, apiFieldErrors } from '../core/api-error-message';
@@ -25,7 +25,7 @@ import { readOnlyFacts } from './read-only-facts';
 import { RevisionEditor } from './revision-editor';
 import { scenarioControls } from './scenario-controls';
 import { SignOffDialog } from './sign-off-dialog';
-import { staleSaveOf } from './stale-save';
+import { staleSaveOf } from '../revision-save/stale-save';
 
 /** Entries of the scenario's activity log shown at once. */
 export const ACTIVITY_PAGE_SIZE = 20;
@@ -63,6 +63,7 @@ export class ScenarioPage {
   private readonly commentReloads = signal(0);
   private readonly openPanel = signal<'hand-off' | 'sign-off' | null>(null);
   protected readonly panel = this.openPanel.asReadonly();
+  protected readonly statusLabel = SCENARIO_STATUS_LABELS;
   private readonly compareChoice = signal<number[]>([]);
   protected readonly compareSelection = this.compareChoice.asReadonly();
   private readonly actionMessage = signal<{ error: boolean; text: string } | null>(null);
