@@ -38,6 +38,7 @@ describe('readOnlyFacts', () => {
       'nonlinear.torqueLimit',
       'nonlinear.coulombFriction',
       'nonlinear.staticFriction',
+      'nonlinear.torqueOffset',
       'nonlinear.deadBand',
       'nonlinear.encoderCounts',
       'nonlinear.noiseStdDev',
