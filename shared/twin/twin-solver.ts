@@ -1,4 +1,4 @@
-import { Solver } from 'odex3';
+import { Solver } from 'odex';
 import type { TwinSettings } from './twin-settings';
 
 /**
