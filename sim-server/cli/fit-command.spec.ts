@@ -5,7 +5,8 @@ import { withRecordings } from '../../shared/twin/recorded-samples';
 import { buildScenario } from '../../shared/twin/testing/build-scenario';
 import { readLogFile } from '../logs/read-log-file';
 import { parseCliArguments } from './cli-arguments';
-import { runCli, type CliIo } from './run-cli';
+import { runCli } from './run-cli';
+import { memoryIo as sharedMemoryIo } from './testing/memory-io';
 
 // `kinetwin fit` in-process: scenario and log from memory, the log through the real streamed reader.
 const truth = { inertia: 0.05, damping: 0.3, stiffness: 2 };
@@ -21,17 +22,8 @@ const deg = 180 / Math.PI;
 const logText = ['time_ms;angle [deg];torque', ...Array.from(measured.t, (t, i) => `${(1000 * t + 2000).toFixed(1)};${(measured.angle[i]! * deg).toFixed(6)};${signal.values[i]!.toFixed(6)}`)].join('\r\n');
 const start = { kind: 'kinetwin/scenario', version: 1, name: 'fit start', joint: { inertia: 0.08, damping: 0.2, stiffness: 3 }, controller: { mode: 'open-loop' }, horizon: 2 };
 
-function memoryIo(files: Record<string, string>) {
-  const out: string[] = [];
-  const err: string[] = [];
-  const io: CliIo = {
-    readText: async (path) => files[path] ?? Promise.reject(new Error(`ENOENT: no such file '${path}'`)),
-    writeOut: async (chunk) => void out.push(chunk),
-    writeErr: (text) => void err.push(text),
-    readLog: (path, options) => readLogFile(Readable.from([files[path] ?? '']), options),
-  };
-  return { io, out: () => out.join(''), err: () => err.join('') };
-}
+const memoryIo = (files: Record<string, string>) =>
+  sharedMemoryIo(files, { readLog: (path, options) => readLogFile(Readable.from([files[path] ?? '']), options) });
 
 const files = { 'start.json': JSON.stringify(start), 'log.csv': logText, 'bad.csv': 'time;angle;torque\n0;0;0.1\n0.002;x;0.1\n0.004;0;0.1\n' };
 

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { runCli, type CliIo } from './run-cli';
+import { runCli } from './run-cli';
+import { memoryIo } from './testing/memory-io';
 
 // The whole command flow in-process, with files and streams replaced by memory.
 const scenario = {
@@ -11,24 +12,6 @@ const scenario = {
   inputs: [{ channel: 'torque', shape: 'step', amplitude: 1 }],
   horizon: 2,
 };
-
-function memoryIo(files: Record<string, string>) {
-  const out: string[] = [];
-  const err: string[] = [];
-  const io: CliIo = {
-    readText: async (path) => {
-      if (!(path in files)) throw Object.assign(new Error(`ENOENT: no such file or directory, open '${path}'`), { code: 'ENOENT' });
-      return files[path]!;
-    },
-    writeOut: async (chunk) => {
-      out.push(chunk);
-    },
-    writeErr: (text) => {
-      err.push(text);
-    },
-  };
-  return { io, out: () => out.join(''), err: () => err.join('') };
-}
 
 const files = {
   'ok.json': JSON.stringify(scenario),

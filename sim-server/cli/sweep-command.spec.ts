@@ -1,25 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { parseCliArguments } from './cli-arguments';
-import { runCli, type CliIo } from './run-cli';
-
-// `kinetwin sweep` in-process, files and streams in memory (as run-cli.spec.ts does).
-function memoryIo(files: Record<string, string>) {
-  const out: string[] = [];
-  const err: string[] = [];
-  const io: CliIo = {
-    readText: async (path) => {
-      if (!(path in files)) throw Object.assign(new Error(`ENOENT: no such file or directory, open '${path}'`), { code: 'ENOENT' });
-      return files[path]!;
-    },
-    writeOut: async (chunk) => {
-      out.push(chunk);
-    },
-    writeErr: (text) => {
-      err.push(text);
-    },
-  };
-  return { io, out: () => out.join(''), err: () => err.join('') };
-}
+import { runCli } from './run-cli';
+import { memoryIo } from './testing/memory-io';
 
 // A PD loop with the derivative on the measured angle: J s² + (b + kd) s + kp, ζ = (b + kd)/(2√(J kp)).
 const joint = {
