@@ -1,10 +1,10 @@
-import { setImmediate as yieldToLoop } from 'node:timers/promises';
 import { fitTwin } from '../../shared/calibration/fit-twin';
 import { multisineSignal, staircaseSignal, synthesizeTrace } from '../../shared/calibration/testing/synthetic-log';
 import { parseScenario } from '../../shared/scenario/parse-scenario';
 import type { RecordedSamples } from '../../shared/twin/recorded-samples';
 import { withRecordings } from '../../shared/twin/recorded-samples';
 import type { BenchResult } from './bench-result';
+import { medianAfterWarmUp } from './bench-timing';
 
 /** Fits timed per figure, after one untimed fit (JIT warm-up). */
 export const FIT_BENCH_RUNS = { warmUp: 1, timed: 5 } as const;
@@ -39,18 +39,7 @@ function fitLoad(signal: RecordedSamples) {
   };
 }
 
-async function medianMs(work: () => unknown): Promise<number> {
-  for (let i = 0; i < FIT_BENCH_RUNS.warmUp; i++) work();
-  const times: number[] = [];
-  for (let i = 0; i < FIT_BENCH_RUNS.timed; i++) {
-    const start = performance.now();
-    work();
-    times.push(performance.now() - start);
-    await yieldToLoop();
-  }
-  times.sort((a, b) => a - b);
-  return times[Math.floor(times.length / 2)]!;
-}
+const medianMs = (work: () => unknown) => medianAfterWarmUp(work, FIT_BENCH_RUNS);
 
 /**
  * Fit benchmarks: inertia, damping and stiffness fitted to a 10 s log at 1 kHz (10,001 angle

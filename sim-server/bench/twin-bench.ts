@@ -1,10 +1,10 @@
-import { setImmediate as yieldToLoop } from 'node:timers/promises';
 import { evaluateClosedForm, solveClosedForm } from '../../shared/closed-form';
 import { parseScenario } from '../../shared/scenario/parse-scenario';
 import type { Scenario, ScenarioInput } from '../../shared/scenario/scenario-schema';
 import { simulateTwin, TWIN_DEFAULTS } from '../../shared/twin/twin-run';
 import { createTwinSolver } from '../../shared/twin/twin-solver';
 import type { BenchResult } from './bench-result';
+import { medianAfterWarmUp } from './bench-timing';
 
 /** Runs discarded before timing (JIT warm-up), and runs timed per figure. */
 export const TWIN_BENCH_RUNS = { warmUp: 30, timed: 101 } as const;
@@ -50,19 +50,7 @@ function parsed(input: ScenarioInput): Scenario {
   return result.value;
 }
 
-/** Median wall time of `work`, ms, after warm-up; yields to the event loop between runs. */
-async function medianMs(work: () => void): Promise<number> {
-  for (let i = 0; i < TWIN_BENCH_RUNS.warmUp; i++) work();
-  const times: number[] = [];
-  for (let i = 0; i < TWIN_BENCH_RUNS.timed; i++) {
-    const start = performance.now();
-    work();
-    times.push(performance.now() - start);
-    await yieldToLoop();
-  }
-  times.sort((a, b) => a - b);
-  return times[Math.floor(times.length / 2)]!;
-}
+const medianMs = (work: () => unknown) => medianAfterWarmUp(work, TWIN_BENCH_RUNS);
 
 /** Restarts in a 10 s run of a 1 ms sampled loop: the twin restarts odex at every sample. */
 const SAMPLED_RESTARTS = 10_000;
